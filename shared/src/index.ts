@@ -1,0 +1,3 @@
+// Public entry of @stavemark/shared: pure computations and request shapes used by api and web.
+export * from './schemas/index.js';
+export * from './colour/contrast.js';

@@ -1,0 +1,4 @@
+export * from './roles.js';
+export * from './auth.js';
+export * from './users.js';
+export * from './errors.js';
