@@ -1,3 +1,4 @@
 // Public entry of @stavemark/shared: pure computations and request shapes used by api and web.
 export * from './schemas/index.js';
 export * from './colour/contrast.js';
+export * from './music/index.js';
