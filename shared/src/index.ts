@@ -2,3 +2,4 @@
 export * from './schemas/index.js';
 export * from './colour/contrast.js';
 export * from './music/index.js';
+export * from './marks/index.js';
