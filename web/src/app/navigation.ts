@@ -1,0 +1,20 @@
+import type { Role } from '@stavemark/shared';
+import { paths } from '@/config/paths';
+
+export interface NavItem {
+  to: string;
+  label: string;
+  roles: readonly Role[];
+  /** Match the path exactly (the home page would otherwise match every path). */
+  end?: boolean;
+}
+
+/** The navigation as data: a later feature adds its row here. Order is the order shown. */
+export const navItems: readonly NavItem[] = [
+  { to: paths.today.href(), label: 'Today', roles: paths.today.roles, end: true },
+  { to: paths.people.href(), label: 'People', roles: paths.people.roles },
+];
+
+export function navItemsFor(roles: readonly Role[]): NavItem[] {
+  return navItems.filter((item) => item.roles.some((r) => roles.includes(r)));
+}
