@@ -4,12 +4,7 @@ import { join } from 'node:path';
 import nodemailer from 'nodemailer';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { startMailCatcher, type RunningMailCatcher } from './catcher.js';
-import {
-  clearCaughtMail,
-  listCaughtMail,
-  readCaughtMail,
-  waitForCaughtMail,
-} from './mailbox.js';
+import { clearCaughtMail, listCaughtMail, readCaughtMail, waitForCaughtMail } from './mailbox.js';
 
 // The sender side is nodemailer (a general-purpose library from the npm registry), so what is
 // checked here is that a message as a real SMTP client sends it comes back intact.
@@ -48,7 +43,9 @@ describe('mail catcher', () => {
       subject: 'Mark sheet — Grade 3 piano',
       text: 'Your mark sheet is attached. Crotchet = 60.',
       html: '<p>Your mark sheet is attached. <b>Crotchet = 60.</b></p>',
-      attachments: [{ filename: 'mark-sheet.pdf', content: pdfBytes, contentType: 'application/pdf' }],
+      attachments: [
+        { filename: 'mark-sheet.pdf', content: pdfBytes, contentType: 'application/pdf' },
+      ],
     });
     expect(info.accepted).toHaveLength(4);
 
@@ -60,7 +57,12 @@ describe('mail catcher', () => {
     expect(mail.envelope.from).toBe('noreply@demo.example');
     // Bcc is only in the envelope, never in the headers.
     expect([...mail.envelope.to].sort()).toEqual(
-      ['admin@demo.example', 'examiner@demo.example', 'student@demo.example', 'teacher@demo.example'].sort(),
+      [
+        'admin@demo.example',
+        'examiner@demo.example',
+        'student@demo.example',
+        'teacher@demo.example',
+      ].sort(),
     );
     expect(mail.from).toBe('"Stavemark" <noreply@demo.example>');
     expect(mail.to).toEqual(['"Ada Teacher" <teacher@demo.example>', 'student@demo.example']);
@@ -83,7 +85,12 @@ describe('mail catcher', () => {
   it('keeps arrival order, reads by id, and clears', async () => {
     const t = transportFor(catcher);
     for (const n of [1, 2, 3]) {
-      await t.sendMail({ from: 'a@demo.example', to: 'b@demo.example', subject: `n${n}`, text: `${n}` });
+      await t.sendMail({
+        from: 'a@demo.example',
+        to: 'b@demo.example',
+        subject: `n${n}`,
+        text: `${n}`,
+      });
     }
     const all = await listCaughtMail(dir);
     expect(all.map((m) => m.subject)).toEqual(['n1', 'n2', 'n3']);
@@ -101,7 +108,12 @@ describe('mail catcher', () => {
   it('waits for a message that arrives later', async () => {
     const waiting = waitForCaughtMail(dir, (m) => m.subject === 'later', { timeoutMs: 5000 });
     setTimeout(() => {
-      void transportFor(catcher).sendMail({ from: 'a@demo.example', to: 'b@demo.example', subject: 'later', text: 'x' });
+      void transportFor(catcher).sendMail({
+        from: 'a@demo.example',
+        to: 'b@demo.example',
+        subject: 'later',
+        text: 'x',
+      });
     }, 200);
     expect((await waiting).envelope.to).toEqual(['b@demo.example']);
     await expect(
@@ -110,7 +122,12 @@ describe('mail catcher', () => {
   });
 
   it('leaves no temp files behind and ignores foreign files in the folder', async () => {
-    await transportFor(catcher).sendMail({ from: 'a@demo.example', to: 'b@demo.example', subject: 's', text: 't' });
+    await transportFor(catcher).sendMail({
+      from: 'a@demo.example',
+      to: 'b@demo.example',
+      subject: 's',
+      text: 't',
+    });
     await writeFile(join(dir, 'notes.json'), '{}');
     const names = await readdir(dir);
     expect(names.filter((n) => n.endsWith('.tmp'))).toEqual([]);
@@ -120,7 +137,9 @@ describe('mail catcher', () => {
 
   it('reports a corrupt stored file clearly instead of skipping it', async () => {
     await writeFile(join(dir, '0000000000001-deadbeef.json'), '{ not json');
-    await expect(listCaughtMail(dir)).rejects.toThrow(/0000000000001-deadbeef\.json is not valid JSON/);
+    await expect(listCaughtMail(dir)).rejects.toThrow(
+      /0000000000001-deadbeef\.json is not valid JSON/,
+    );
     await rm(join(dir, '0000000000001-deadbeef.json'));
   });
 
@@ -156,9 +175,9 @@ describe('mail catcher limits', () => {
   });
 
   it('will not listen on a non-loopback address', async () => {
-    await expect(startMailCatcher({ dir: await tempDir(), host: '0.0.0.0', port: 0 })).rejects.toThrow(
-      /not a loopback address/,
-    );
+    await expect(
+      startMailCatcher({ dir: await tempDir(), host: '0.0.0.0', port: 0 }),
+    ).rejects.toThrow(/not a loopback address/);
   });
 
   it('says so when the port is taken', async () => {

@@ -66,7 +66,11 @@ async function readAll(stream: SMTPServerDataStream): Promise<Buffer> {
   return Buffer.concat(chunks);
 }
 
-async function storeMessage(dir: string, raw: Buffer, session: SMTPServerSession): Promise<CaughtMail> {
+async function storeMessage(
+  dir: string,
+  raw: Buffer,
+  session: SMTPServerSession,
+): Promise<CaughtMail> {
   const parsed = await simpleParser(raw);
   const id = nextId();
   const mail: CaughtMail = {
@@ -129,14 +133,20 @@ export async function startMailCatcher(options: MailCatcherOptions): Promise<Run
             return;
           }
           const mail = await storeMessage(dir, raw, session);
-          log(`caught ${mail.id} to=${mail.envelope.to.join(',')} subject=${JSON.stringify(mail.subject)}`);
+          log(
+            `caught ${mail.id} to=${mail.envelope.to.join(',')} subject=${JSON.stringify(mail.subject)}`,
+          );
           callback(null, `Caught as ${mail.id}`);
         })
         .catch((err: unknown) => {
           // A temporary failure (451) tells the sender to keep the message and retry.
           const message = err instanceof Error ? err.message : String(err);
           log(`could not store a message: ${message}`);
-          callback(Object.assign(new Error(`Could not store the message: ${message}`), { responseCode: 451 }));
+          callback(
+            Object.assign(new Error(`Could not store the message: ${message}`), {
+              responseCode: 451,
+            }),
+          );
         });
     },
   });
@@ -146,7 +156,9 @@ export async function startMailCatcher(options: MailCatcherOptions): Promise<Run
     const onError = (err: NodeJS.ErrnoException) => {
       reject(
         err.code === 'EADDRINUSE'
-          ? new Error(`Mail catcher: port ${options.port ?? DEFAULT_MAIL_CATCHER_PORT} on ${host} is already in use`)
+          ? new Error(
+              `Mail catcher: port ${options.port ?? DEFAULT_MAIL_CATCHER_PORT} on ${host} is already in use`,
+            )
           : err,
       );
     };
@@ -179,7 +191,9 @@ function parseMaxBytes(value: string | undefined): number | undefined {
   if (value === undefined || value === '') return undefined;
   const n = Number(value);
   if (!Number.isSafeInteger(n) || n <= 0) {
-    throw new Error(`MAIL_CATCHER_MAX_BYTES must be a positive whole number, got ${JSON.stringify(value)}`);
+    throw new Error(
+      `MAIL_CATCHER_MAX_BYTES must be a positive whole number, got ${JSON.stringify(value)}`,
+    );
   }
   return n;
 }
@@ -188,7 +202,11 @@ async function main(): Promise<void> {
   // api/{src,dist}/mail-catcher/ → checkout root is three levels up.
   const checkout = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..', '..');
   const dir = process.env.MAIL_CATCHER_DIR || join(checkout, '.local', 'mail');
-  const port = parsePort(process.env.MAIL_CATCHER_PORT, DEFAULT_MAIL_CATCHER_PORT, 'MAIL_CATCHER_PORT');
+  const port = parsePort(
+    process.env.MAIL_CATCHER_PORT,
+    DEFAULT_MAIL_CATCHER_PORT,
+    'MAIL_CATCHER_PORT',
+  );
   const maxBytes = parseMaxBytes(process.env.MAIL_CATCHER_MAX_BYTES);
   const catcher = await startMailCatcher({
     dir,
@@ -197,10 +215,15 @@ async function main(): Promise<void> {
     maxBytes,
     log: (line) => console.log(`${new Date().toISOString()} ${line}`),
   });
-  console.log(`Mail catcher listening on smtp://${catcher.host}:${catcher.port}, storing in ${catcher.dir}`);
+  console.log(
+    `Mail catcher listening on smtp://${catcher.host}:${catcher.port}, storing in ${catcher.dir}`,
+  );
   const stop = (signal: string) => {
     console.log(`${signal}: stopping the mail catcher`);
-    catcher.close().then(() => process.exit(0), () => process.exit(1));
+    catcher.close().then(
+      () => process.exit(0),
+      () => process.exit(1),
+    );
   };
   process.once('SIGTERM', () => stop('SIGTERM'));
   process.once('SIGINT', () => stop('SIGINT'));

@@ -1,0 +1,34 @@
+import { Module } from '@nestjs/common';
+import { APP_FILTER } from '@nestjs/core';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { AuditModule } from './audit/audit.module.js';
+import { AuthModule } from './auth/auth.module.js';
+import { AllExceptionsFilter } from './common/http-exception.filter.js';
+import { AppConfigModule, ENV } from './config/config.module.js';
+import type { Env } from './config/env.js';
+import { dataSourceOptions } from './database/data-source-options.js';
+import { HealthModule } from './health/health.module.js';
+import { TodayModule } from './today/today.module.js';
+import { UsersModule } from './users/users.module.js';
+
+@Module({
+  imports: [
+    AppConfigModule,
+    TypeOrmModule.forRootAsync({
+      inject: [ENV],
+      useFactory: (env: Env) => ({
+        ...dataSourceOptions(env.DATABASE_URL),
+        // Start even when PostgreSQL is down, so /api/health can answer 503.
+        retryAttempts: 0,
+        extra: { max: 20, connectionTimeoutMillis: 3000 },
+      }),
+    }),
+    AuditModule,
+    AuthModule,
+    UsersModule,
+    TodayModule,
+    HealthModule,
+  ],
+  providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
+})
+export class AppModule {}

@@ -1,0 +1,22 @@
+import { AuditEvent } from '../audit/entities/audit-event.entity.js';
+import { RefreshToken } from '../auth/entities/refresh-token.entity.js';
+import { ClassGroup } from '../classes/entities/class-group.entity.js';
+import { Organisation } from '../organisations/entities/organisation.entity.js';
+import { Term } from '../organisations/entities/term.entity.js';
+import { Guardian } from '../students/entities/guardian.entity.js';
+import { Student } from '../students/entities/student.entity.js';
+import { Membership } from '../users/entities/membership.entity.js';
+import { Person } from '../users/entities/person.entity.js';
+
+/** Every entity, listed once for the data source, the tests and the CLI. */
+export const entities = [
+  Organisation,
+  Term,
+  Person,
+  Membership,
+  RefreshToken,
+  ClassGroup,
+  Student,
+  Guardian,
+  AuditEvent,
+];

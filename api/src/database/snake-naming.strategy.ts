@@ -1,0 +1,25 @@
+import { DefaultNamingStrategy, type NamingStrategyInterface } from 'typeorm';
+
+const snake = (s: string): string => s.replace(/([a-z0-9])([A-Z])/g, '$1_$2').toLowerCase();
+
+/** Tables and columns in snake_case, as PostgreSQL users expect, without naming every column. */
+export class SnakeNamingStrategy extends DefaultNamingStrategy implements NamingStrategyInterface {
+  override tableName(className: string, customName?: string): string {
+    return customName ?? snake(className);
+  }
+  override columnName(propertyName: string, customName: string | undefined, prefixes: string[]): string {
+    return customName ?? snake([...prefixes, propertyName].join('_'));
+  }
+  override relationName(propertyName: string): string {
+    return snake(propertyName);
+  }
+  override joinColumnName(relationName: string, referencedColumnName: string): string {
+    return snake(`${relationName}_${referencedColumnName}`);
+  }
+  override joinTableName(firstTableName: string, secondTableName: string): string {
+    return snake(`${firstTableName}_${secondTableName}`);
+  }
+  override joinTableColumnName(tableName: string, propertyName: string, columnName?: string): string {
+    return snake(`${tableName}_${columnName ?? propertyName}`);
+  }
+}
