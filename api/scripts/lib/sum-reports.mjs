@@ -14,7 +14,9 @@ if (!resultsFile) {
 }
 
 const lines = existsSync(resultsFile)
-  ? readFileSync(resultsFile, 'utf8').split('\n').filter((l) => l.trim() !== '')
+  ? readFileSync(resultsFile, 'utf8')
+      .split('\n')
+      .filter((l) => l.trim() !== '')
   : [];
 
 let passed = 0;
@@ -50,7 +52,9 @@ for (const line of lines) {
   const { report, error } = readReport(reportPath);
   if (!report) {
     failed += 1;
-    rows.push(`  ${name.padEnd(8)} FAILED: exited ${exitCode} and ${error} (counted as 1 failure)${time}`);
+    rows.push(
+      `  ${name.padEnd(8)} FAILED: exited ${exitCode} and ${error} (counted as 1 failure)${time}`,
+    );
     continue;
   }
   let p = report.numPassedTests;
@@ -89,7 +93,8 @@ for (const row of rows) console.log(row);
 if (failures.length) {
   console.log('\nFailing tests:');
   for (const f of failures.slice(0, 40)) console.log(f);
-  if (failures.length > 40) console.log(`  … and ${failures.length - 40} more (see .local/test-reports/)`);
+  if (failures.length > 40)
+    console.log(`  … and ${failures.length - 40} more (see .local/test-reports/)`);
 }
 console.log(`${passed} passed, ${failed} failed`);
 process.exit(failed > 0 ? 1 : 0);
