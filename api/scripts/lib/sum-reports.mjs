@@ -1,7 +1,7 @@
 // Totals the suites of api/scripts/test-all.sh from their vitest / jest JSON reports.
 // Usage: node sum-reports.mjs RESULTS_TSV
 // Each line of RESULTS_TSV: name \t state \t report-path \t exit-code \t seconds \t note
-//   state: ran | skipped | not-run (a step it needed failed; note says which)
+//   state: ran | skipped | not-run (a step it needed failed; note says which) | failed (a build)
 // Prints one line per suite, the failing tests, and as the very last line `N passed, N failed`.
 // Exit code: 0 when nothing failed, 1 otherwise.
 import { existsSync, readFileSync } from 'node:fs';
@@ -42,6 +42,11 @@ for (const line of lines) {
   const time = seconds ? ` (${seconds} s)` : '';
   if (state === 'skipped') {
     rows.push(`  ${name.padEnd(8)} skipped (${note || 'not present'})`);
+    continue;
+  }
+  if (state === 'failed') {
+    failed += 1;
+    rows.push(`  ${name.padEnd(8)} FAILED: ${note} (counted as 1 failure)`);
     continue;
   }
   if (state === 'not-run') {
