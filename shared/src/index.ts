@@ -3,3 +3,4 @@ export * from './schemas/index.js';
 export * from './colour/contrast.js';
 export * from './music/index.js';
 export * from './marks/index.js';
+export * from './draw/index.js';

@@ -17,7 +17,7 @@ describe('compareSheets (design.md §4.5 tolerance; hand-worked)', () => {
     expect(r.flagged).toBe(true);
   });
   it('totals 50 and 56 (6 of 100 = 6 %) are within; 50 and 57 are flagged', () => {
-    // 4 requests of 25 marks each: marks 5,5,5,5 → 50; 6,6,6,5.. → use single steps of 2.5 marks.
+    // Four equal requests of 25 marks each, so one mark of 10 on a request is 2.5 marks in the total.
     const a = sheet([5, 5, 5, 5]); // 50
     const b = sheet([6, 6, 5, 5]); // 55 (request diff 10 % each)
     expect(compareSheets(a, b).total).toMatchObject({ a: 50, b: 55, difference: 5, limit: 6, flagged: false });

@@ -136,7 +136,8 @@ export interface RequirementListVersion {
 
 /** A substitution actually applied to a drawn request (from the candidate's access arrangement). */
 export interface AppliedSubstitution {
-  type: Substitution['type'];
+  /** Every substitution that changed this request, in the order applied. */
+  types: Substitution['type'][];
   /** What the request was before the substitution, for the record. */
   original: { hands: Hands; motion: Motion | null; octaves: number; bpm: number };
 }

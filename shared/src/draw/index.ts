@@ -1,0 +1,2 @@
+export * from './prng.js';
+export * from './draw.js';
