@@ -4,3 +4,4 @@ export * from './colour/contrast.js';
 export * from './music/index.js';
 export * from './marks/index.js';
 export * from './draw/index.js';
+export * from './planning/index.js';

@@ -91,6 +91,11 @@ function coresOf(line: RequirementLine): Core[] {
   return out;
 }
 
+/** How many different requests a line can give (its pool for the draw). */
+export function lineRequestCount(line: RequirementLine): number {
+  return new Set(coresOf(line).map((c) => c.identity)).size;
+}
+
 function pickOne<T>(rand: () => number, items: readonly T[]): T {
   return items[randomIndex(rand, items.length)] as T;
 }
