@@ -38,8 +38,9 @@ export default defineConfig({
     environment: 'jsdom',
     include: ['src/**/*.test.{ts,tsx}'],
     setupFiles: ['src/test/setup.ts'],
-    // PrimeReact ships CSS imports inside components; vitest does not need to process them.
-    css: false,
+    // Only our own stylesheets are processed (the theme test reads them with ?raw); library CSS is skipped.
+    css: { include: [/src\/app\/.*\.css/] },
     restoreMocks: true,
+    testTimeout: 20_000,
   },
 });

@@ -6,6 +6,7 @@ import { Button } from 'primereact/button';
 import { InputText } from 'primereact/inputtext';
 import { createUserSchema, PASSWORD_MIN_LENGTH, type UserRow } from '@stavemark/shared';
 import type { z } from 'zod';
+import { ApiError } from '@/lib/api-client';
 import { applyApiErrors } from '@/lib/form-errors';
 import { FieldError } from '@/components/FieldError';
 import { useCreateUser } from '../api/create-user';
@@ -51,7 +52,11 @@ export function CreatePersonDialog({ visible, onHide, onCreated }: Props) {
         close();
         onCreated(row);
       },
-      onError: (error) => setFormError(applyApiErrors(error, setError, FIELDS)),
+      onError: (error) => {
+        // 409: the e-mail already belongs to someone here; say so beside the e-mail.
+        if (error instanceof ApiError && error.status === 409) setError('email', { type: 'server', message: error.message });
+        else setFormError(applyApiErrors(error, setError, FIELDS));
+      },
     });
   });
 

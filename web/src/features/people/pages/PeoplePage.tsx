@@ -144,13 +144,13 @@ export function PeoplePage() {
   const data = users.data;
   return (
     <section aria-labelledby="people-title">
-      <header className="sm-page-header">
+      <div className="sm-page-header">
         <div>
           <h1 id="people-title">People</h1>
           <p className="sm-page-subtitle">Everyone with a sign-in at {activeMembership(me)?.organisationName}, and their roles.</p>
         </div>
         <Button type="button" label="Add a person" icon="pi pi-plus" onClick={() => setCreating(true)} />
-      </header>
+      </div>
 
       <div className="sm-toolbar" role="search">
         <div className="sm-field sm-field-grow">

@@ -15,7 +15,7 @@ export function TodayPage() {
 
   return (
     <section aria-labelledby="today-title">
-      <header className="sm-page-header">
+      <div className="sm-page-header">
         <div>
           <h1 id="today-title">Today</h1>
           {today.data && (
@@ -26,7 +26,7 @@ export function TodayPage() {
           )}
         </div>
         <p className="sm-muted">Hello, {firstName}.</p>
-      </header>
+      </div>
       {today.isPending && <PageLoading label="Loading today…" />}
       {today.isError && <ErrorMessage error={today.error} what="today's page" />}
       {today.data && (

@@ -1,0 +1,113 @@
+import { describe, expect, it } from 'vitest';
+import { screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import type { Role } from '@stavemark/shared';
+import { renderApp } from '@/test/render';
+import { json, mockApi } from '@/test/fetch-mock';
+import { makeSession, makeUser, ORG_ID, OTHER_ORG_ID } from '@/test/factories';
+import { navItemsFor } from './navigation';
+
+function todayFor(roles: Role[]) {
+  return {
+    date: '2026-12-01',
+    timeZone: 'Europe/London',
+    organisationName: 'Larkfield Music School',
+    roles,
+    ...(roles.includes('admin') ? { admin: { people: 48, students: 40, classes: 4, term: null } } : {}),
+    ...(roles.includes('teacher') ? { teacher: { classes: [] } } : {}),
+    ...(roles.includes('examiner') ? { examiner: { sittings: [] } } : {}),
+    ...(roles.includes('student') ? { student: { name: 'Rowan Hale', grade: 3, classes: [] } } : {}),
+  };
+}
+
+function navLinks() {
+  const nav = screen.getByRole('navigation', { name: 'Main' });
+  return within(nav)
+    .getAllByRole('link')
+    .map((a) => a.textContent);
+}
+
+describe('navigation per role', () => {
+  it.each<[Role, string[]]>([
+    ['admin', ['Today', 'People']],
+    ['teacher', ['Today']],
+    ['examiner', ['Today']],
+    ['student', ['Today']],
+  ])('%s sees %j', async (role, expected) => {
+    mockApi({ 'GET /api/today': () => json(200, todayFor([role])) });
+    renderApp('/', makeSession(makeUser([role])));
+    expect(await screen.findByRole('heading', { name: 'Today' })).toBeInTheDocument();
+    expect(navLinks()).toEqual(expected);
+  });
+
+  it('uses the roles of the active organisation only', () => {
+    expect(navItemsFor(['teacher']).map((i) => i.label)).toEqual(['Today']);
+    expect(navItemsFor(['teacher', 'admin']).map((i) => i.label)).toEqual(['Today', 'People']);
+  });
+
+  it('shows who is signed in, the organisation and the roles', async () => {
+    mockApi({ 'GET /api/today': () => json(200, todayFor(['teacher', 'examiner'])) });
+    renderApp('/', makeSession(makeUser(['teacher', 'examiner'])));
+    await screen.findByRole('heading', { name: 'Today' });
+    const banner = screen.getByRole('banner');
+    expect(within(banner).getByText('Rowan Hale')).toBeInTheDocument();
+    expect(within(banner).getByText('Larkfield Music School')).toBeInTheDocument();
+    expect(within(banner).getByText('Teacher, Examiner')).toBeInTheDocument();
+  });
+
+  it('a teacher who opens the People address is told it is not for their role', async () => {
+    const api = mockApi({});
+    renderApp('/people', makeSession(makeUser(['teacher'])));
+    expect(await screen.findByRole('heading', { name: 'Not open to your role' })).toBeInTheDocument();
+    expect(api.calls('GET /api/users')).toHaveLength(0);
+  });
+
+  it('an unknown address shows the not-found page inside the layout', async () => {
+    mockApi({});
+    renderApp('/no-such-page', makeSession(makeUser(['student'])));
+    expect(await screen.findByRole('heading', { name: 'Page not found' })).toBeInTheDocument();
+    expect(screen.getByText('/no-such-page')).toBeInTheDocument();
+    expect(screen.getByRole('navigation', { name: 'Main' })).toBeInTheDocument();
+  });
+
+  it('a person in two organisations can switch; the roles of the new one count', async () => {
+    const twoOrgs = makeUser(['teacher'], {
+      memberships: [
+        { organisationId: ORG_ID, organisationName: 'Larkfield Music School', timeZone: 'Europe/London', roles: ['teacher'] },
+        { organisationId: OTHER_ORG_ID, organisationName: 'Harbour Piano Studio', timeZone: 'Europe/Dublin', roles: ['admin'] },
+      ],
+    });
+    const api = mockApi({
+      'GET /api/today': (req) =>
+        json(200, req.headers.get('Authorization') === 'Bearer token-2' ? todayFor(['admin']) : todayFor(['teacher'])),
+      'POST /api/auth/switch-organisation': () => json(200, makeSession({ ...twoOrgs, activeOrganisationId: OTHER_ORG_ID }, 'token-2')),
+    });
+    renderApp('/', makeSession(twoOrgs));
+    await screen.findByRole('heading', { name: 'Today' });
+    expect(navLinks()).toEqual(['Today']);
+
+    const user = userEvent.setup();
+    // PrimeReact's Dropdown opens on a click on its visible box.
+    const switcher = screen.getByLabelText('Organisation').closest('.p-dropdown');
+    await user.click(switcher as HTMLElement);
+    // jsdom has no layout, so PrimeReact's overlay positioning leaves the panel display:none;
+    // in a browser it is visible (the e2e tests use real panels).
+    await user.click(await screen.findByRole('option', { name: 'Harbour Piano Studio', hidden: true }));
+
+    expect(await screen.findByRole('link', { name: 'People' })).toBeInTheDocument();
+    expect(api.calls('POST /api/auth/switch-organisation')[0]?.body).toEqual({ organisationId: OTHER_ORG_ID });
+  });
+
+  it('sign out tells the server, forgets the session and shows the sign-in page', async () => {
+    const api = mockApi({
+      'GET /api/today': () => json(200, todayFor(['student'])),
+      'POST /api/auth/logout': () => new Response(null, { status: 204 }),
+    });
+    renderApp('/', makeSession(makeUser(['student'])));
+    await screen.findByRole('heading', { name: 'Today' });
+    await userEvent.setup().click(screen.getByRole('button', { name: 'Sign out' }));
+    expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
+    expect(screen.getByText('You have signed out.')).toBeInTheDocument();
+    expect(api.calls('POST /api/auth/logout')).toHaveLength(1);
+  });
+});
