@@ -5,3 +5,4 @@ export * from './music/index.js';
 export * from './marks/index.js';
 export * from './draw/index.js';
 export * from './planning/index.js';
+export * from './stats/index.js';
