@@ -6,3 +6,5 @@ export * from './marks/index.js';
 export * from './draw/index.js';
 export * from './planning/index.js';
 export * from './stats/index.js';
+export * from './progress/index.js';
+export * from './csv/index.js';

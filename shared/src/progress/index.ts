@@ -1,0 +1,2 @@
+export * from './trend.js';
+export * from './issues.js';
