@@ -96,6 +96,10 @@ describe('navigation per role', () => {
 
     expect(await screen.findByRole('link', { name: 'People' })).toBeInTheDocument();
     expect(api.calls('POST /api/auth/switch-organisation')[0]?.body).toEqual({ organisationId: OTHER_ORG_ID });
+    // Today is fetched again with the new organisation's token and shows its sections.
+    expect(await screen.findByRole('region', { name: 'The organisation' })).toBeInTheDocument();
+    expect(api.calls('GET /api/today').at(-1)?.headers.get('Authorization')).toBe('Bearer token-2');
+    expect(within(screen.getByRole('banner')).getByText('Administrator')).toBeInTheDocument();
   });
 
   it('sign out tells the server, forgets the session and shows the sign-in page', async () => {

@@ -52,7 +52,8 @@ export function AppLayout() {
         </div>
       </header>
       <main id="main" className="sm-main" tabIndex={-1}>
-        <Outlet />
+        {/* Keyed by organisation: a switch remounts the page, so it fetches the new organisation's data. */}
+        <Outlet key={user.activeOrganisationId} />
       </main>
     </div>
   );

@@ -1,4 +1,4 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useMutation } from '@tanstack/react-query';
 import { apiRequest } from '@/lib/api-client';
 import { sessionStore } from '@/lib/session-store';
 
@@ -7,13 +7,10 @@ export async function logout(): Promise<void> {
 }
 
 export function useLogout() {
-  const queryClient = useQueryClient();
   return useMutation({
     mutationFn: logout,
     // Sign out locally even when the server could not be told: the person asked to leave.
-    onSettled: () => {
-      sessionStore.end('You have signed out.');
-      queryClient.clear();
-    },
+    // Ending the session also empties the query cache (see app/provider.tsx).
+    onSettled: () => sessionStore.end('You have signed out.'),
   });
 }

@@ -20,9 +20,8 @@ export function SignInPage() {
   return (
     <main className="sm-signin">
       <div className="sm-signin-card">
-        <p className="sm-wordmark">
-          Stavemark
-        </p>
+        <p className="sm-wordmark">Stavemark</p>
+        <p className="sm-signin-tagline">Mock exams and technique records for piano teaching.</p>
         {notice && (
           <Alert severity="info">{notice}</Alert>
         )}

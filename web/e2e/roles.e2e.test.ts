@@ -1,0 +1,60 @@
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { Role } from '@stavemark/shared';
+import { launch, screenshot, type Session } from './support/browser';
+import { DEMO, mainNavLinks, signIn } from './support/sign-in';
+
+const expectedNav: Record<Role, string[]> = {
+  admin: ['Today', 'People'],
+  teacher: ['Today'],
+  examiner: ['Today'],
+  student: ['Today'],
+};
+
+// The section headings Today shows for each role (features/today/components).
+const expectedSection: Record<Role, string> = {
+  admin: 'The organisation',
+  teacher: 'Your classes',
+  examiner: 'Your sittings today',
+  student: 'Your lessons',
+};
+
+describe('each demo role signs in and sees its own navigation', () => {
+  let s: Session;
+  beforeEach(async () => {
+    s = await launch();
+  });
+  afterEach(async () => {
+    await s.close();
+  });
+
+  it.each(Object.keys(DEMO) as Role[])('%s', async (role) => {
+    const session = await signIn(s.page, DEMO[role]);
+    const active = session.user.memberships.find((m) => m.organisationId === session.user.activeOrganisationId);
+    expect(active?.roles).toContain(role);
+
+    expect(await mainNavLinks(s.page)).toEqual(expectedNav[role]);
+    await s.page.getByRole('heading', { name: expectedSection[role], level: 2 }).waitFor();
+    // The signed-in person and their organisation are shown in the bar.
+    const banner = s.page.getByRole('banner');
+    expect(await banner.textContent()).toContain(session.user.displayName);
+    expect(await banner.textContent()).toContain(active?.organisationName ?? '(no organisation)');
+
+    await screenshot(s.page, `today-${role}`);
+
+    if (role === 'admin') {
+      await s.page.getByRole('link', { name: 'People' }).click();
+      await s.page.getByRole('heading', { name: 'People', level: 1 }).waitFor();
+      // The first page lists somebody; a search finds the demo teacher wherever they sort.
+      await s.page.getByRole('cell', { name: /@/ }).first().waitFor();
+      await screenshot(s.page, 'people-admin');
+      await s.page.getByLabel('Search').fill(DEMO.teacher);
+      await s.page.getByRole('cell', { name: DEMO.teacher, exact: true }).waitFor();
+      expect(await s.page.getByRole('table').getByRole('row').count()).toBe(2); // header + the one match
+    } else {
+      // Typing the address does not open a page that is not for this role.
+      await s.page.goto(new URL('/people', s.page.url()).toString());
+      await s.page.getByRole('heading', { name: 'Not open to your role' }).waitFor();
+    }
+    expect(s.problems).toEqual([]);
+  });
+});

@@ -1,0 +1,37 @@
+import type { Page } from 'playwright-core';
+import type { AuthSession, Role } from '@stavemark/shared';
+import { BASE_URL } from './browser';
+
+export const DEMO_PASSWORD = 'stavemark-demo';
+
+/** The demo school's sign-ins (seed-data), one per role. */
+export const DEMO: Record<Role, string> = {
+  admin: 'admin@demo.example',
+  teacher: 'teacher@demo.example',
+  examiner: 'examiner@demo.example',
+  student: 'student@demo.example',
+};
+
+export async function fillSignIn(page: Page, email: string, password: string): Promise<void> {
+  await page.goto(`${BASE_URL}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+/** Signs in through the form and waits for Today; returns the session the API answered. */
+export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<AuthSession> {
+  const answer = page.waitForResponse((r) => r.url().endsWith('/api/auth/login') && r.request().method() === 'POST');
+  await fillSignIn(page, email, password);
+  const response = await answer;
+  if (response.status() !== 200) {
+    throw new Error(`Sign-in as ${email} answered ${response.status()}: ${await response.text()}`);
+  }
+  await page.getByRole('heading', { name: 'Today', level: 1 }).waitFor();
+  return (await response.json()) as AuthSession;
+}
+
+export async function mainNavLinks(page: Page): Promise<string[]> {
+  const links = page.getByRole('navigation', { name: 'Main' }).getByRole('link');
+  return (await links.allTextContents()).map((t) => t.trim());
+}
