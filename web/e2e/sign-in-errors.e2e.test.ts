@@ -22,7 +22,7 @@ describe('sign-in errors', () => {
     await alert.waitFor();
     expect((await alert.textContent())?.trim()).toBe(body.message);
     // The message must not say which of the two was wrong (design.md §8).
-    expect(body.message.toLowerCase()).toMatch(/e-?mail or password/);
+    expect(body.message.toLowerCase()).toMatch(/e-?mail( address)? or password/);
     expect(s.page.url()).toBe(`${BASE_URL}/sign-in`);
     await screenshot(s.page, 'sign-in-wrong-password');
     expect(s.problems).toEqual([]);

@@ -53,10 +53,8 @@ export function SignInForm() {
   const error = login.error;
   let alert: string | null = null;
   if (error instanceof ApiError && error.status === 429) {
-    alert =
-      waitSeconds > 0
-        ? `${error.message} You can try again in ${waitText(waitSeconds)}.`
-        : 'You can try to sign in again now.';
+    // The API's message names the wait at the moment of refusal; the button counts it down.
+    alert = waitSeconds > 0 ? error.message : 'You can try to sign in again now.';
   } else if (error instanceof ApiError) {
     alert = error.message;
   } else if (error) {
@@ -97,7 +95,7 @@ export function SignInForm() {
       </div>
       <Button
         type="submit"
-        label={login.isPending ? 'Signing in…' : 'Sign in'}
+        label={login.isPending ? 'Signing in…' : waitSeconds > 0 ? `Try again in ${waitText(waitSeconds)}` : 'Sign in'}
         disabled={login.isPending || waitSeconds > 0}
         className="sm-form-submit"
       />

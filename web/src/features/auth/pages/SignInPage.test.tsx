@@ -47,14 +47,28 @@ describe('sign-in page', () => {
   });
 
   it('shows how long to wait when sign-in is rate-limited, and holds the button until then', async () => {
-    mockApi({ 'POST /api/auth/login': () => apiError(429, 'Too many sign-in attempts.', {}, { 'Retry-After': '30' }) });
+    mockApi({
+      'POST /api/auth/login': () =>
+        apiError(429, 'Too many sign-in attempts. Please wait 30 seconds and try again.', {}, { 'Retry-After': '30' }),
+    });
     renderApp('/sign-in', null);
     await screen.findByRole('heading', { name: 'Sign in' });
 
     await fillAndSubmit('teacher@demo.example', 'stavemark-demo');
 
-    expect(await screen.findByRole('alert')).toHaveTextContent('Too many sign-in attempts. You can try again in 30 seconds.');
-    expect(screen.getByRole('button', { name: 'Sign in' })).toBeDisabled();
+    expect(await screen.findByRole('alert')).toHaveTextContent('Too many sign-in attempts. Please wait 30 seconds and try again.');
+    // The wait comes from Retry-After and counts down on the button.
+    expect(screen.getByRole('button', { name: /^Try again in (30|29) seconds$/ })).toBeDisabled();
+  });
+
+  it('lets the person try again once the wait is over', async () => {
+    mockApi({ 'POST /api/auth/login': () => apiError(429, 'Too many sign-in attempts. Please wait 2 seconds and try again.', {}, { 'Retry-After': '2' }) });
+    renderApp('/sign-in', null);
+    await screen.findByRole('heading', { name: 'Sign in' });
+    await fillAndSubmit('teacher@demo.example', 'stavemark-demo');
+    expect(await screen.findByRole('button', { name: /^Try again in [12] seconds?$/ })).toBeDisabled();
+    expect(await screen.findByRole('button', { name: 'Sign in' }, { timeout: 4000 })).toBeEnabled();
+    expect(screen.getByRole('alert')).toHaveTextContent('You can try to sign in again now.');
   });
 
   it('signs in and opens Today', async () => {
