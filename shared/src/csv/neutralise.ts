@@ -12,13 +12,19 @@ const FORMULA_START = new Set(['=', '+', '-', '@', '\t', '\r']);
  */
 export function neutraliseCsvCell(value: string): string;
 export function neutraliseCsvCell<T extends number | boolean | null | undefined>(value: T): T;
-export function neutraliseCsvCell(value: string | number | boolean | null | undefined): string | number | boolean | null | undefined;
-export function neutraliseCsvCell(value: string | number | boolean | null | undefined): string | number | boolean | null | undefined {
+export function neutraliseCsvCell(
+  value: string | number | boolean | null | undefined,
+): string | number | boolean | null | undefined;
+export function neutraliseCsvCell(
+  value: string | number | boolean | null | undefined,
+): string | number | boolean | null | undefined {
   if (typeof value !== 'string' || value.length === 0) return value;
   return FORMULA_START.has(value[0] as string) ? `'${value}` : value;
 }
 
 /** Neutralises every cell of a row. */
-export function neutraliseCsvRow<T extends readonly (string | number | boolean | null | undefined)[]>(row: T): T {
+export function neutraliseCsvRow<
+  T extends readonly (string | number | boolean | null | undefined)[],
+>(row: T): T {
   return row.map((c) => neutraliseCsvCell(c)) as unknown as T;
 }

@@ -19,7 +19,10 @@ import { normaliseKeyName } from '../music/keys.js';
 import { randomIndex, seededRandom, type Seed } from './prng.js';
 
 /** The fields that make two requests "the same request" for avoiding repeats. */
-export type RequestIdentityFields = Pick<Request, 'kind' | 'key' | 'mode' | 'hands' | 'motion' | 'inversion' | 'title'>;
+export type RequestIdentityFields = Pick<
+  Request,
+  'kind' | 'key' | 'mode' | 'hands' | 'motion' | 'inversion' | 'title'
+>;
 
 /**
  * Identity of a request: kind, key, mode, hands, motion, inversion and title. Octaves, direction,
@@ -28,7 +31,15 @@ export type RequestIdentityFields = Pick<Request, 'kind' | 'key' | 'mode' | 'han
  */
 export function requestIdentity(r: RequestIdentityFields): string {
   const key = r.key === null ? '' : normaliseKeyName(r.key);
-  return [r.kind, key, r.mode ?? '', r.hands, r.motion ?? '', r.inversion ?? '', r.title ?? ''].join('|');
+  return [
+    r.kind,
+    key,
+    r.mode ?? '',
+    r.hands,
+    r.motion ?? '',
+    r.inversion ?? '',
+    r.title ?? '',
+  ].join('|');
 }
 
 export interface DrawOptions {
@@ -75,17 +86,32 @@ function coresOf(line: RequirementLine): Core[] {
   const keys: (string | null)[] = counted ? line.keys.map(normaliseKeyName) : [null];
   const titles: (string | null)[] = counted ? [null] : (line.titles ?? []);
   const modes: (Mode | null)[] = isModalKind(line.kind) ? line.modes : [null];
-  const inversions: (Inversion | null)[] = isInvertibleKind(line.kind) && line.inversions.length > 0 ? line.inversions : [null];
+  const inversions: (Inversion | null)[] =
+    isInvertibleKind(line.kind) && line.inversions.length > 0 ? line.inversions : [null];
   const out: Core[] = [];
   for (const key of keys)
     for (const title of titles)
       for (const mode of modes)
         for (const hands of line.hands) {
-          const motions: (Motion | null)[] = hands === 'HT' && counted ? (line.motions.length > 0 ? line.motions : ['similar']) : [null];
+          const motions: (Motion | null)[] =
+            hands === 'HT' && counted
+              ? line.motions.length > 0
+                ? line.motions
+                : ['similar']
+              : [null];
           for (const motion of motions)
             for (const inversion of inversions) {
               const core = { line, key, mode, hands, motion, inversion, title, kind: line.kind };
-              out.push({ line, key, mode, hands, motion, inversion, title, identity: requestIdentity(core) });
+              out.push({
+                line,
+                key,
+                mode,
+                hands,
+                motion,
+                inversion,
+                title,
+                identity: requestIdentity(core),
+              });
             }
         }
   return out;
@@ -115,14 +141,24 @@ function best<T>(items: readonly T[], score: (t: T) => number): T[] {
 }
 
 function checkRule(rule: SelectionRule): void {
-  if (!Number.isInteger(rule.count) || rule.count < 1) throw new DrawError('invalid_rule', `The rule must ask at least one request (count ${String(rule.count)}).`);
+  if (!Number.isInteger(rule.count) || rule.count < 1)
+    throw new DrawError(
+      'invalid_rule',
+      `The rule must ask at least one request (count ${String(rule.count)}).`,
+    );
   let sum = 0;
   for (const [kind, min] of Object.entries(rule.minPerKind)) {
-    if (!(REQUEST_KINDS as readonly string[]).includes(kind)) throw new DrawError('invalid_rule', `Unknown kind "${kind}" in the rule.`);
-    if (!Number.isInteger(min) || (min ?? 0) < 0) throw new DrawError('invalid_rule', `Minimum for ${kind} must be a whole number ≥ 0.`);
+    if (!(REQUEST_KINDS as readonly string[]).includes(kind))
+      throw new DrawError('invalid_rule', `Unknown kind "${kind}" in the rule.`);
+    if (!Number.isInteger(min) || (min ?? 0) < 0)
+      throw new DrawError('invalid_rule', `Minimum for ${kind} must be a whole number ≥ 0.`);
     sum += min ?? 0;
   }
-  if (sum > rule.count) throw new DrawError('invalid_rule', `The minimums add up to ${sum}, more than the ${rule.count} requests asked.`);
+  if (sum > rule.count)
+    throw new DrawError(
+      'invalid_rule',
+      `The minimums add up to ${sum}, more than the ${rule.count} requests asked.`,
+    );
 }
 
 /**
@@ -163,12 +199,18 @@ export function drawRequests(
 
   for (const [kind, min] of Object.entries(rule.minPerKind) as [RequestKind, number][]) {
     if (min > available(kind)) {
-      throw new DrawError('not_enough_requests', `The rule asks for at least ${min} ${kind} request(s), but the list offers only ${available(kind)} different one(s).`);
+      throw new DrawError(
+        'not_enough_requests',
+        `The rule asks for at least ${min} ${kind} request(s), but the list offers only ${available(kind)} different one(s).`,
+      );
     }
   }
   const total = [...identitiesByKind.values()].reduce((s, set) => s + set.size, 0);
   if (total < rule.count) {
-    throw new DrawError('not_enough_requests', `The rule asks for ${rule.count} requests, but the list offers only ${total} different one(s).`);
+    throw new DrawError(
+      'not_enough_requests',
+      `The rule asks for ${rule.count} requests, but the list offers only ${total} different one(s).`,
+    );
   }
 
   const used = new Set<string>();
@@ -186,19 +228,30 @@ export function drawRequests(
   };
 
   const drawOne = (kind: RequestKind) => {
-    const lines = list.lines.filter((l) => l.kind === kind && (coresByLine.get(l) ?? []).some((c) => !used.has(c.identity)));
+    const lines = list.lines.filter(
+      (l) => l.kind === kind && (coresByLine.get(l) ?? []).some((c) => !used.has(c.identity)),
+    );
     const byWeight = best(lines, (l) => weightCount.get(`${kind}:${l.difficultyWeight}`) ?? 0);
-    const line = pickOne(rand, best(byWeight, (l) => lineCount.get(l) ?? 0));
+    const line = pickOne(
+      rand,
+      best(byWeight, (l) => lineCount.get(l) ?? 0),
+    );
     const open = (coresByLine.get(line) ?? []).filter((c) => !used.has(c.identity));
     const fresh = open.filter((c) => !previous.has(c.identity));
     const pool = fresh.length > 0 ? fresh : open;
     if (fresh.length === 0) repeatsOfPrevious++;
-    const core = pickOne(rand, best(pool, (c) => (c.key === null ? 0 : (keysUsed.get(c.key) ?? 0))));
+    const core = pickOne(
+      rand,
+      best(pool, (c) => (c.key === null ? 0 : (keysUsed.get(c.key) ?? 0))),
+    );
     used.add(core.identity);
     drawn.push(core);
     kindCount.set(kind, (kindCount.get(kind) ?? 0) + 1);
     lineCount.set(line, (lineCount.get(line) ?? 0) + 1);
-    weightCount.set(`${kind}:${line.difficultyWeight}`, (weightCount.get(`${kind}:${line.difficultyWeight}`) ?? 0) + 1);
+    weightCount.set(
+      `${kind}:${line.difficultyWeight}`,
+      (weightCount.get(`${kind}:${line.difficultyWeight}`) ?? 0) + 1,
+    );
     if (core.key !== null) keysUsed.set(core.key, (keysUsed.get(core.key) ?? 0) + 1);
   };
 
@@ -209,7 +262,12 @@ export function drawRequests(
   // Then spread: the kind drawn least so far among those with requests left.
   while (drawn.length < rule.count) {
     const kinds = REQUEST_KINDS.filter((k) => remaining(k) > 0);
-    drawOne(pickOne(rand, best(kinds, (k) => kindCount.get(k) ?? 0)));
+    drawOne(
+      pickOne(
+        rand,
+        best(kinds, (k) => kindCount.get(k) ?? 0),
+      ),
+    );
   }
 
   const order = (k: RequestKind) => REQUEST_KINDS.indexOf(k);
@@ -217,7 +275,10 @@ export function drawRequests(
     .map((core, i) => ({ core, i }))
     .sort((a, b) => order(a.core.line.kind) - order(b.core.line.kind) || a.i - b.i)
     .map(({ core }) => toRequest(core, rand));
-  const requests = applySubstitutions(sorted, options.substitutions ?? []).map((r, index) => ({ ...r, index }));
+  const requests = applySubstitutions(sorted, options.substitutions ?? []).map((r, index) => ({
+    ...r,
+    index,
+  }));
   return { seed, algorithm: 'mulberry32/fnv1a32 v1', requests, repeatsOfPrevious };
 }
 
@@ -225,7 +286,8 @@ function toRequest(core: Core, rand: () => number): Request {
   const { line } = core;
   const counted = isCountedKind(line.kind);
   const octaves = counted && line.octaves.length > 0 ? pickOne(rand, line.octaves) : 1;
-  const directions = line.directions && line.directions.length > 0 ? line.directions : (['up_down'] as const);
+  const directions =
+    line.directions && line.directions.length > 0 ? line.directions : (['up_down'] as const);
   return {
     index: 0,
     lineId: line.id,
@@ -253,14 +315,25 @@ function toRequest(core: Core, rand: () => number): Request {
  * substitution (hands separately: RH then LH as two requests; single hand: the named hand). Each
  * changed request records what it was before. Throws when two hands substitutions conflict.
  */
-export function applySubstitutions(requests: readonly Request[], substitutions: readonly Substitution[]): Request[] {
-  const handsSubs = substitutions.filter((s) => s.type === 'hands_separately' || s.type === 'single_hand');
+export function applySubstitutions(
+  requests: readonly Request[],
+  substitutions: readonly Substitution[],
+): Request[] {
+  const handsSubs = substitutions.filter(
+    (s) => s.type === 'hands_separately' || s.type === 'single_hand',
+  );
   for (const s of substitutions) {
     if (s.type === 'max_octaves' && (!Number.isInteger(s.octaves) || s.octaves < 1)) {
-      throw new DrawError('invalid_substitution', `max_octaves needs a whole number of octaves ≥ 1, got ${String(s.octaves)}.`);
+      throw new DrawError(
+        'invalid_substitution',
+        `max_octaves needs a whole number of octaves ≥ 1, got ${String(s.octaves)}.`,
+      );
     }
     if (s.type === 'tempo_percent' && !(s.percent > 0 && s.percent <= 100)) {
-      throw new DrawError('invalid_substitution', `tempo_percent must be above 0 and at most 100, got ${String(s.percent)}.`);
+      throw new DrawError(
+        'invalid_substitution',
+        `tempo_percent must be above 0 and at most 100, got ${String(s.percent)}.`,
+      );
     }
   }
   const applies = (s: Substitution, r: Request) => !s.appliesTo || s.appliesTo.includes(r.kind);
@@ -281,12 +354,24 @@ export function applySubstitutions(requests: readonly Request[], substitutions: 
     }
     const handsFor = handsSubs.filter((s) => applies(s, cur));
     if (handsFor.length > 1) {
-      throw new DrawError('invalid_substitution', `More than one hands substitution applies to ${cur.kind}: keep one.`);
+      throw new DrawError(
+        'invalid_substitution',
+        `More than one hands substitution applies to ${cur.kind}: keep one.`,
+      );
     }
     const hs = handsFor[0];
     if (hs && cur.hands === 'HT') {
-      const hands: ('RH' | 'LH')[] = hs.type === 'hands_separately' ? ['RH', 'LH'] : [hs.type === 'single_hand' ? hs.hand : 'RH'];
-      for (const hand of hands) out.push({ ...cur, hands: hand, motion: null, substitution: { types: [...applied, hs.type], original } });
+      const hands: ('RH' | 'LH')[] =
+        hs.type === 'hands_separately'
+          ? ['RH', 'LH']
+          : [hs.type === 'single_hand' ? hs.hand : 'RH'];
+      for (const hand of hands)
+        out.push({
+          ...cur,
+          hands: hand,
+          motion: null,
+          substitution: { types: [...applied, hs.type], original },
+        });
       continue;
     }
     out.push(applied.length > 0 ? { ...cur, substitution: { types: applied, original } } : cur);

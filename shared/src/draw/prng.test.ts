@@ -21,7 +21,8 @@ describe('mulberry32 against published reference outputs', () => {
   it('seed 99: first ten 32-bit outputs as listed by the xrandom project (reference values from the JS generator)', () => {
     const g = mulberry32(99);
     expect(Array.from({ length: 10 }, () => g.nextUint32())).toEqual([
-      1118692146, 3456687457, 2323025554, 2964572940, 4890715, 3511320825, 48751514, 452846334, 1703291702, 2881671998,
+      1118692146, 3456687457, 2323025554, 2964572940, 4890715, 3511320825, 48751514, 452846334,
+      1703291702, 2881671998,
     ]);
   });
   it('seed 1985: 3527837133, 3112574143 (reference values quoted in a public mulberry32 test suite)', () => {

@@ -21,7 +21,13 @@ function utf8(text: string): number[] {
     if (cp < 0x80) out.push(cp);
     else if (cp < 0x800) out.push(0xc0 | (cp >> 6), 0x80 | (cp & 63));
     else if (cp < 0x10000) out.push(0xe0 | (cp >> 12), 0x80 | ((cp >> 6) & 63), 0x80 | (cp & 63));
-    else out.push(0xf0 | (cp >> 18), 0x80 | ((cp >> 12) & 63), 0x80 | ((cp >> 6) & 63), 0x80 | (cp & 63));
+    else
+      out.push(
+        0xf0 | (cp >> 18),
+        0x80 | ((cp >> 12) & 63),
+        0x80 | ((cp >> 6) & 63),
+        0x80 | (cp & 63),
+      );
   }
   return out;
 }
@@ -48,11 +54,14 @@ export type Seed = string | number;
 export function seedState(seed: Seed): number {
   if (typeof seed === 'number') {
     if (!Number.isInteger(seed) || seed < 0 || seed > 0xffffffff) {
-      throw new RangeError(`A numeric seed must be a whole number from 0 to 4294967295, got ${String(seed)}.`);
+      throw new RangeError(
+        `A numeric seed must be a whole number from 0 to 4294967295, got ${String(seed)}.`,
+      );
     }
     return seed;
   }
-  if (typeof seed !== 'string' || seed.length === 0) throw new RangeError('A seed must be a non-empty string or a whole number.');
+  if (typeof seed !== 'string' || seed.length === 0)
+    throw new RangeError('A seed must be a non-empty string or a whole number.');
   return fnv1a32(seed);
 }
 

@@ -32,7 +32,10 @@ export const DEFAULT_BAND_POLICY: BandPolicy = {
   below: { key: 'not_yet_passed', label: 'Not yet passed' },
 };
 
-const bandKey = z.string().trim().regex(/^[a-z][a-z0-9_]{0,39}$/, 'Use lower-case letters, digits and _.');
+const bandKey = z
+  .string()
+  .trim()
+  .regex(/^[a-z][a-z0-9_]{0,39}$/, 'Use lower-case letters, digits and _.');
 
 /** Body of a new band policy version (an admin edits the policy as a new version). */
 export const bandPolicyBodySchema = z
@@ -42,7 +45,10 @@ export const bandPolicyBodySchema = z
         z.strictObject({
           key: bandKey,
           label: z.string().trim().min(1).max(60),
-          minPercent: z.number().gt(0, 'A threshold is above 0 %.').max(100, 'A threshold is at most 100 %.'),
+          minPercent: z
+            .number()
+            .gt(0, 'A threshold is above 0 %.')
+            .max(100, 'A threshold is at most 100 %.'),
         }),
       )
       .min(1, 'Give at least one band.')
@@ -53,11 +59,16 @@ export const bandPolicyBodySchema = z
     p.bands.forEach((b, i) => {
       const prev = p.bands[i - 1];
       if (prev && b.minPercent >= prev.minPercent) {
-        ctx.addIssue({ code: 'custom', path: ['bands', i, 'minPercent'], message: 'List bands from the highest threshold down, each lower than the one before.' });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['bands', i, 'minPercent'],
+          message: 'List bands from the highest threshold down, each lower than the one before.',
+        });
       }
     });
     const keys = [...p.bands.map((b) => b.key), p.below.key];
-    if (new Set(keys).size !== keys.length) ctx.addIssue({ code: 'custom', path: ['bands'], message: 'Each band key once.' });
+    if (new Set(keys).size !== keys.length)
+      ctx.addIssue({ code: 'custom', path: ['bands'], message: 'Each band key once.' });
   });
 export type BandPolicyBody = z.infer<typeof bandPolicyBodySchema>;
 
@@ -66,7 +77,8 @@ export type BandPolicyBody = z.infer<typeof bandPolicyBodySchema>;
  * that 56/70 reaches exactly 80 % without a floating-point near miss.
  */
 export function bandFor(total: number, policy: BandPolicy, outOf: number): Band {
-  if (!Number.isFinite(outOf) || outOf <= 0) throw new RangeError(`outOf must be a positive number, got ${String(outOf)}.`);
+  if (!Number.isFinite(outOf) || outOf <= 0)
+    throw new RangeError(`outOf must be a positive number, got ${String(outOf)}.`);
   if (!Number.isFinite(total) || total < 0 || total > outOf) {
     throw new RangeError(`total must be between 0 and ${outOf}, got ${String(total)}.`);
   }
@@ -79,5 +91,8 @@ export function bandFor(total: number, policy: BandPolicy, outOf: number): Band 
 
 /** Band order from lowest to highest, for exact/adjacent agreement. */
 export function bandOrder(policy: BandPolicy): string[] {
-  return [policy.below.key, ...[...policy.bands].sort((a, b) => a.minPercent - b.minPercent).map((b) => b.key)];
+  return [
+    policy.below.key,
+    ...[...policy.bands].sort((a, b) => a.minPercent - b.minPercent).map((b) => b.key),
+  ];
 }

@@ -4,7 +4,13 @@ import { scoreMarkSheet, type SheetRequestInput } from './scoring.js';
 
 const criteria = [{ key: 'c', label: 'C', weight: 1, maxMark: 10 }];
 const sheet = (marks: number[], asked = marks.map(() => true)) => {
-  const requests: SheetRequestInput[] = marks.map((m, i) => ({ key: `r${i}`, asked: asked[i]!, difficultyWeight: 1, criteria, marks: { c: m } }));
+  const requests: SheetRequestInput[] = marks.map((m, i) => ({
+    key: `r${i}`,
+    asked: asked[i]!,
+    difficultyWeight: 1,
+    criteria,
+    marks: { c: m },
+  }));
   return scoreMarkSheet({ outcome: 'completed', totalMarks: 100, requests });
 };
 
@@ -20,7 +26,13 @@ describe('compareSheets (design.md §4.5 tolerance; hand-worked)', () => {
     // Four equal requests of 25 marks each, so one mark of 10 on a request is 2.5 marks in the total.
     const a = sheet([5, 5, 5, 5]); // 50
     const b = sheet([6, 6, 5, 5]); // 55 (request diff 10 % each)
-    expect(compareSheets(a, b).total).toMatchObject({ a: 50, b: 55, difference: 5, limit: 6, flagged: false });
+    expect(compareSheets(a, b).total).toMatchObject({
+      a: 50,
+      b: 55,
+      difference: 5,
+      limit: 6,
+      flagged: false,
+    });
     const c = sheet([6, 6, 6, 5]); // 57.5 → 58
     expect(compareSheets(a, c).total).toMatchObject({ difference: 8, flagged: true });
     expect(compareSheets(a, c).requests.every((q) => !q.flagged)).toBe(true);
@@ -33,6 +45,11 @@ describe('compareSheets (design.md §4.5 tolerance; hand-worked)', () => {
     expect(compareSheets(sheet([3, 9]), sheet([3, 9])).flagged).toBe(false);
   });
   it('refuses to compare a sheet without a result', () => {
-    expect(() => compareSheets(sheet([5]), scoreMarkSheet({ outcome: 'absent', totalMarks: 100, requests: [] }))).toThrow(/scored/);
+    expect(() =>
+      compareSheets(
+        sheet([5]),
+        scoreMarkSheet({ outcome: 'absent', totalMarks: 100, requests: [] }),
+      ),
+    ).toThrow(/scored/);
   });
 });

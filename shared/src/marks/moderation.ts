@@ -1,8 +1,6 @@
 // Tolerance between two examiners' sheets for the same slot (design.md §4.5).
 import type { SheetScore } from './scoring.js';
 
-type Scored = Extract<SheetScore, { status: 'scored' }>;
-
 export interface Tolerance {
   /** A request is flagged when the two scores differ by more than this share of its maximum. */
   requestShare: number;
@@ -36,9 +34,17 @@ export interface SheetComparison {
  * rounded totals differ by more than `totalShare` of the total marks. "More than" is strict: a
  * difference of exactly 20 % is within tolerance.
  */
-export function compareSheets(a: SheetScore, b: SheetScore, tolerance: Tolerance = DEFAULT_TOLERANCE): SheetComparison {
-  if (a.status !== 'scored' || b.status !== 'scored') throw new RangeError('Only two scored sheets can be compared.');
-  if (a.totalMarks !== b.totalMarks) throw new RangeError(`The sheets are out of different totals (${a.totalMarks} and ${b.totalMarks}).`);
+export function compareSheets(
+  a: SheetScore,
+  b: SheetScore,
+  tolerance: Tolerance = DEFAULT_TOLERANCE,
+): SheetComparison {
+  if (a.status !== 'scored' || b.status !== 'scored')
+    throw new RangeError('Only two scored sheets can be compared.');
+  if (a.totalMarks !== b.totalMarks)
+    throw new RangeError(
+      `The sheets are out of different totals (${a.totalMarks} and ${b.totalMarks}).`,
+    );
   const eps = 1e-9;
   const aBy = new Map(a.requests.map((r) => [r.key, r]));
   const bBy = new Map(b.requests.map((r) => [r.key, r]));
@@ -47,11 +53,25 @@ export function compareSheets(a: SheetScore, b: SheetScore, tolerance: Tolerance
     const ra = aBy.get(key);
     const rb = bBy.get(key);
     if (!ra || !rb) {
-      return { key, a: ra?.score ?? null, b: rb?.score ?? null, difference: null, flagged: true, reason: 'asked_by_one_only' };
+      return {
+        key,
+        a: ra?.score ?? null,
+        b: rb?.score ?? null,
+        difference: null,
+        flagged: true,
+        reason: 'asked_by_one_only',
+      };
     }
     const difference = Math.abs(ra.score - rb.score);
     const flagged = difference > tolerance.requestShare + eps;
-    return { key, a: ra.score, b: rb.score, difference, flagged, reason: flagged ? 'over_tolerance' : 'within' };
+    return {
+      key,
+      a: ra.score,
+      b: rb.score,
+      difference,
+      flagged,
+      reason: flagged ? 'over_tolerance' : 'within',
+    };
   });
   const diff = Math.abs(a.total - b.total);
   const limit = tolerance.totalShare * a.totalMarks;

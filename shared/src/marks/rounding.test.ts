@@ -4,7 +4,13 @@ import { roundHalfUp } from './rounding.js';
 // ECMA-402 (Intl.NumberFormat) defines roundingMode "halfCeil" — ties towards +∞ — on the
 // number's decimal value; the JS engine's implementation is an independent check of ours.
 const intlHalfCeil = (v: number, d: number) =>
-  Number(new Intl.NumberFormat('en', { maximumFractionDigits: d, roundingMode: 'halfCeil', useGrouping: false }).format(v));
+  Number(
+    new Intl.NumberFormat('en', {
+      maximumFractionDigits: d,
+      roundingMode: 'halfCeil',
+      useGrouping: false,
+    }).format(v),
+  );
 
 describe('roundHalfUp (worked table: round half up, y = ⌊x + ½⌋, ties towards +∞)', () => {
   const table: [value: number, decimals: number, expected: number][] = [
@@ -28,7 +34,8 @@ describe('roundHalfUp (worked table: round half up, y = ⌊x + ½⌋, ties towar
     expect(roundHalfUp(value, decimals)).toBe(expected);
   });
   it('agrees with ECMA-402 Intl.NumberFormat roundingMode "halfCeil" on the table', () => {
-    for (const [value, decimals] of table) expect(roundHalfUp(value, decimals)).toBe(intlHalfCeil(value, decimals));
+    for (const [value, decimals] of table)
+      expect(roundHalfUp(value, decimals)).toBe(intlHalfCeil(value, decimals));
   });
   it('naive rounding gets 1.005 wrong, which is why this exists (hand-worked)', () => {
     expect(Math.round(1.005 * 100) / 100).toBe(1);

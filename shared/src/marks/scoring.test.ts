@@ -7,7 +7,13 @@ const criteria = [
   { key: 'evenness', label: 'Evenness', weight: 1, maxMark: 5 },
   { key: 'tension', label: 'Freedom from tension', weight: 1, maxMark: 10 },
 ];
-const req = (key: string, difficultyWeight: number, a: number, e: number, t: number): SheetRequestInput => ({
+const req = (
+  key: string,
+  difficultyWeight: number,
+  a: number,
+  e: number,
+  t: number,
+): SheetRequestInput => ({
   key,
   asked: true,
   difficultyWeight,
@@ -35,12 +41,27 @@ describe('scoreMarkSheet (hand-worked example above)', () => {
     expect(s.requests[0]).toMatchObject({ rawMarks: 13, rawMaximum: 20 });
   });
   it('equal weighting gives 22.25 → 22', () => {
-    const s = scoreMarkSheet({ outcome: 'completed', totalMarks: 30, requests, weighting: 'equal' });
+    const s = scoreMarkSheet({
+      outcome: 'completed',
+      totalMarks: 30,
+      requests,
+      weighting: 'equal',
+    });
     expect(s.status === 'scored' && s.total).toBe(22);
   });
   it('a request not asked is excluded (same total as without it)', () => {
-    const notAsked: SheetRequestInput = { key: 'r4', asked: false, difficultyWeight: 3, criteria, marks: {} };
-    const s = scoreMarkSheet({ outcome: 'completed', totalMarks: 30, requests: [...requests, notAsked] });
+    const notAsked: SheetRequestInput = {
+      key: 'r4',
+      asked: false,
+      difficultyWeight: 3,
+      criteria,
+      marks: {},
+    };
+    const s = scoreMarkSheet({
+      outcome: 'completed',
+      totalMarks: 30,
+      requests: [...requests, notAsked],
+    });
     if (s.status !== 'scored') throw new Error('expected a score');
     expect(s.total).toBe(21);
     expect(s.notAsked).toEqual(['r4']);
@@ -50,7 +71,15 @@ describe('scoreMarkSheet (hand-worked example above)', () => {
     const s = scoreMarkSheet({
       outcome: 'completed',
       totalMarks: 10,
-      requests: [{ key: 'r1', asked: true, difficultyWeight: 1, criteria: [{ key: 'c', label: 'C', weight: 1, maxMark: 4 }], marks: { c: 1 } }],
+      requests: [
+        {
+          key: 'r1',
+          asked: true,
+          difficultyWeight: 1,
+          criteria: [{ key: 'c', label: 'C', weight: 1, maxMark: 4 }],
+          marks: { c: 1 },
+        },
+      ],
     });
     expect(s.status === 'scored' && [s.total, s.band.key]).toEqual([3, 'not_yet_passed']);
   });
@@ -61,7 +90,10 @@ describe('scoreMarkSheet (hand-worked example above)', () => {
   });
   it('absent, withdrawn and incomplete slots give no result', () => {
     for (const outcome of ['absent', 'withdrawn', 'incomplete'] as const) {
-      expect(scoreMarkSheet({ outcome, totalMarks: 30, requests })).toEqual({ status: 'no_result', outcome });
+      expect(scoreMarkSheet({ outcome, totalMarks: 30, requests })).toEqual({
+        status: 'no_result',
+        outcome,
+      });
     }
   });
   it('per-criterion profile: marks out of maxima over asked requests', () => {
@@ -75,17 +107,33 @@ describe('scoreMarkSheet (hand-worked example above)', () => {
     expect(s.profile[2]?.fraction).toBeCloseTo(0.7, 12);
   });
   it('lists every missing or invalid mark of an asked request', () => {
-    const bad: SheetRequestInput = { key: 'r9', asked: true, difficultyWeight: 1, criteria, marks: { accuracy: 6, evenness: 2.5 } };
+    const bad: SheetRequestInput = {
+      key: 'r9',
+      asked: true,
+      difficultyWeight: 1,
+      criteria,
+      marks: { accuracy: 6, evenness: 2.5 },
+    };
     try {
       scoreMarkSheet({ outcome: 'completed', totalMarks: 30, requests: [bad] });
       expect.unreachable();
     } catch (e) {
       expect(e).toBeInstanceOf(MarkSheetError);
-      expect((e as MarkSheetError).details.map((d) => d.path)).toEqual(['r9.accuracy', 'r9.evenness', 'r9.tension']);
+      expect((e as MarkSheetError).details.map((d) => d.path)).toEqual([
+        'r9.accuracy',
+        'r9.evenness',
+        'r9.tension',
+      ]);
     }
   });
   it('refuses a sheet with nothing asked', () => {
-    expect(() => scoreMarkSheet({ outcome: 'completed', totalMarks: 30, requests: [{ ...requests[0]!, asked: false }] })).toThrow(/nothing to score/);
+    expect(() =>
+      scoreMarkSheet({
+        outcome: 'completed',
+        totalMarks: 30,
+        requests: [{ ...requests[0]!, asked: false }],
+      }),
+    ).toThrow(/nothing to score/);
   });
 });
 
@@ -105,7 +153,11 @@ describe('bandFor with the default policy (design.md §4.1 thresholds; worked ta
   });
   it('boundaries out of 20: 16 distinction, 14 merit, 11 pass (55 %), 10 not yet', () => {
     expect([16, 15, 14, 11, 10].map((t) => bandFor(t, DEFAULT_BAND_POLICY, 20).key)).toEqual([
-      'distinction', 'merit', 'merit', 'pass', 'not_yet_passed',
+      'distinction',
+      'merit',
+      'merit',
+      'pass',
+      'not_yet_passed',
     ]);
   });
   it('rejects a total outside 0..outOf', () => {
@@ -113,11 +165,24 @@ describe('bandFor with the default policy (design.md §4.1 thresholds; worked ta
     expect(() => bandFor(1, DEFAULT_BAND_POLICY, 0)).toThrow(/outOf/);
   });
   it('band order runs low to high', () => {
-    expect(bandOrder(DEFAULT_BAND_POLICY)).toEqual(['not_yet_passed', 'pass', 'merit', 'distinction']);
+    expect(bandOrder(DEFAULT_BAND_POLICY)).toEqual([
+      'not_yet_passed',
+      'pass',
+      'merit',
+      'distinction',
+    ]);
   });
   it('the policy schema accepts the default and refuses unordered thresholds', () => {
-    expect(bandPolicyBodySchema.safeParse({ bands: DEFAULT_BAND_POLICY.bands, below: DEFAULT_BAND_POLICY.below }).success).toBe(true);
-    const r = bandPolicyBodySchema.safeParse({ bands: [DEFAULT_BAND_POLICY.bands[2], DEFAULT_BAND_POLICY.bands[0]], below: DEFAULT_BAND_POLICY.below });
+    expect(
+      bandPolicyBodySchema.safeParse({
+        bands: DEFAULT_BAND_POLICY.bands,
+        below: DEFAULT_BAND_POLICY.below,
+      }).success,
+    ).toBe(true);
+    const r = bandPolicyBodySchema.safeParse({
+      bands: [DEFAULT_BAND_POLICY.bands[2], DEFAULT_BAND_POLICY.bands[0]],
+      below: DEFAULT_BAND_POLICY.below,
+    });
     expect(r.error?.issues[0]?.path).toEqual(['bands', 1, 'minPercent']);
   });
 });

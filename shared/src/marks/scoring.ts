@@ -91,32 +91,46 @@ export class MarkSheetError extends Error {
 export function scoreMarkSheet(input: MarkSheetInput): SheetScore {
   if (input.outcome !== 'completed') return { status: 'no_result', outcome: input.outcome };
   const { totalMarks } = input;
-  if (!Number.isFinite(totalMarks) || totalMarks <= 0) throw new RangeError(`totalMarks must be positive, got ${String(totalMarks)}.`);
+  if (!Number.isFinite(totalMarks) || totalMarks <= 0)
+    throw new RangeError(`totalMarks must be positive, got ${String(totalMarks)}.`);
   const weighting = input.weighting ?? 'difficulty';
   const problems: { path: string; message: string }[] = [];
   const asked = input.requests.filter((r) => r.asked);
-  if (asked.length === 0) throw new MarkSheetError('No request was asked: there is nothing to score.', []);
+  if (asked.length === 0)
+    throw new MarkSheetError('No request was asked: there is nothing to score.', []);
 
   const seenKeys = new Set<string>();
   for (const r of input.requests) {
-    if (seenKeys.has(r.key)) problems.push({ path: r.key, message: `Request "${r.key}" appears twice.` });
+    if (seenKeys.has(r.key))
+      problems.push({ path: r.key, message: `Request "${r.key}" appears twice.` });
     seenKeys.add(r.key);
   }
   for (const r of asked) {
     if (weighting === 'difficulty' && !(r.difficultyWeight > 0)) {
-      problems.push({ path: `${r.key}.difficultyWeight`, message: 'Difficulty weight must be greater than 0.' });
+      problems.push({
+        path: `${r.key}.difficultyWeight`,
+        message: 'Difficulty weight must be greater than 0.',
+      });
     }
-    if (r.criteria.length === 0) problems.push({ path: r.key, message: 'The request has no criteria.' });
+    if (r.criteria.length === 0)
+      problems.push({ path: r.key, message: 'The request has no criteria.' });
     for (const c of r.criteria) {
       const m = r.marks[c.key];
       const path = `${r.key}.${c.key}`;
-      if (!(c.weight > 0)) problems.push({ path, message: 'Criterion weight must be greater than 0.' });
-      if (!Number.isInteger(c.maxMark) || c.maxMark < 1 || c.maxMark > 10) problems.push({ path, message: 'Maximum mark must be 1 to 10.' });
+      if (!(c.weight > 0))
+        problems.push({ path, message: 'Criterion weight must be greater than 0.' });
+      if (!Number.isInteger(c.maxMark) || c.maxMark < 1 || c.maxMark > 10)
+        problems.push({ path, message: 'Maximum mark must be 1 to 10.' });
       if (m === null || m === undefined) problems.push({ path, message: 'No mark given.' });
-      else if (!Number.isInteger(m) || m < 0 || m > c.maxMark) problems.push({ path, message: `Mark ${m} is not a whole number from 0 to ${c.maxMark}.` });
+      else if (!Number.isInteger(m) || m < 0 || m > c.maxMark)
+        problems.push({ path, message: `Mark ${m} is not a whole number from 0 to ${c.maxMark}.` });
     }
   }
-  if (problems.length > 0) throw new MarkSheetError(`The sheet cannot be scored: ${problems.length} problem(s).`, problems);
+  if (problems.length > 0)
+    throw new MarkSheetError(
+      `The sheet cannot be scored: ${problems.length} problem(s).`,
+      problems,
+    );
 
   const weightOf = (r: SheetRequestInput) => (weighting === 'equal' ? 1 : r.difficultyWeight);
   const weightSum = asked.reduce((s, r) => s + weightOf(r), 0);
@@ -134,7 +148,14 @@ export function scoreMarkSheet(input: MarkSheetInput): SheetScore {
     }
     const score = wFrac / wSum;
     const maximum = (totalMarks * weightOf(r)) / weightSum;
-    return { key: r.key, score, maximum, marks: score * maximum, rawMarks: raw, rawMaximum: rawMax };
+    return {
+      key: r.key,
+      score,
+      maximum,
+      marks: score * maximum,
+      rawMarks: raw,
+      rawMaximum: rawMax,
+    };
   });
   const exactTotal = requests.reduce((s, r) => s + r.marks, 0);
   // Clamp the tiny overshoot floating point can give on a perfect sheet.
@@ -159,18 +180,30 @@ export function scoreMarkSheet(input: MarkSheetInput): SheetScore {
  * the sum of its maxima (a plain, unweighted share, so a student reads it as "marks out of").
  * Keys keep the order in which they first appear.
  */
-export function criterionProfile(requests: readonly Pick<SheetRequestInput, 'criteria' | 'marks'>[]): CriterionProfileEntry[] {
+export function criterionProfile(
+  requests: readonly Pick<SheetRequestInput, 'criteria' | 'marks'>[],
+): CriterionProfileEntry[] {
   const byKey = new Map<string, CriterionProfileEntry>();
   for (const r of requests) {
     for (const c of r.criteria) {
       const m = r.marks[c.key];
       if (m === null || m === undefined) continue;
-      const e = byKey.get(c.key) ?? { key: c.key, label: c.label, marks: 0, maximum: 0, fraction: 0, requests: 0 };
+      const e = byKey.get(c.key) ?? {
+        key: c.key,
+        label: c.label,
+        marks: 0,
+        maximum: 0,
+        fraction: 0,
+        requests: 0,
+      };
       e.marks += m;
       e.maximum += c.maxMark;
       e.requests += 1;
       byKey.set(c.key, e);
     }
   }
-  return [...byKey.values()].map((e) => ({ ...e, fraction: e.maximum > 0 ? e.marks / e.maximum : 0 }));
+  return [...byKey.values()].map((e) => ({
+    ...e,
+    fraction: e.maximum > 0 ? e.marks / e.maximum : 0,
+  }));
 }

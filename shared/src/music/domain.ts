@@ -25,7 +25,11 @@ export const COUNTED_KINDS = [
 export type CountedKind = (typeof COUNTED_KINDS)[number];
 
 /** Kinds played in a key with a mode (major / minor forms). */
-export const MODAL_KINDS = ['scale', 'arpeggio', 'broken_chord'] as const satisfies readonly RequestKind[];
+export const MODAL_KINDS = [
+  'scale',
+  'arpeggio',
+  'broken_chord',
+] as const satisfies readonly RequestKind[];
 
 /** Kinds that may be asked in an inversion (starting on the 3rd, 5th or 7th). */
 export const INVERTIBLE_KINDS = [

@@ -72,9 +72,12 @@ export function validateFingering(input: FingeringInput): FingeringCheck {
 export function parseFingering(text: string): number[] {
   const trimmed = text.trim();
   if (trimmed === '') return [];
-  const parts = /^[0-9]+$/.test(trimmed) ? trimmed.split('') : trimmed.split(/[\s,.\-–]+/).filter((p) => p !== '');
+  const parts = /^[0-9]+$/.test(trimmed)
+    ? trimmed.split('')
+    : trimmed.split(/[\s,.\-–]+/).filter((p) => p !== '');
   return parts.map((p, i) => {
-    if (!/^[0-9]$/.test(p)) throw new RangeError(`Position ${i + 1}: "${p}" is not a single finger digit.`);
+    if (!/^[0-9]$/.test(p))
+      throw new RangeError(`Position ${i + 1}: "${p}" is not a single finger digit.`);
     return Number(p);
   });
 }

@@ -21,7 +21,12 @@ describe('scale spellings', () => {
   it('agree with @tonaljs/tonal Scale.get and Key for every allowed key and mode', () => {
     for (const mode of MODES) {
       for (const tonic of allowedKeys(mode)) {
-        const name = { major: 'major', harmonic_minor: 'harmonic minor', melodic_minor: 'melodic minor', natural_minor: 'aeolian' }[mode];
+        const name = {
+          major: 'major',
+          harmonic_minor: 'harmonic minor',
+          melodic_minor: 'melodic minor',
+          natural_minor: 'aeolian',
+        }[mode];
         expect(scaleNotes(tonic, mode)).toEqual(Scale.get(`${tonic} ${name}`).notes);
       }
     }
@@ -38,14 +43,55 @@ describe('scale spellings', () => {
       ascending: ['B', 'C#', 'D', 'E', 'F#', 'G#', 'A#', 'B'],
       descending: ['B', 'A', 'G', 'F#', 'E', 'D', 'C#', 'B'],
     });
-    expect(scaleSpelling('C', 'major').descending).toEqual(['C', 'B', 'A', 'G', 'F', 'E', 'D', 'C']);
+    expect(scaleSpelling('C', 'major').descending).toEqual([
+      'C',
+      'B',
+      'A',
+      'G',
+      'F',
+      'E',
+      'D',
+      'C',
+    ]);
   });
 });
 
 describe('keys', () => {
   it('15 major keys Cb … C# and 15 minor keys Ab … A# (circle of fifths, common practice)', () => {
-    expect(allowedKeys('major')).toEqual(['Cb', 'Gb', 'Db', 'Ab', 'Eb', 'Bb', 'F', 'C', 'G', 'D', 'A', 'E', 'B', 'F#', 'C#']);
-    expect(allowedKeys('harmonic_minor')).toEqual(['Ab', 'Eb', 'Bb', 'F', 'C', 'G', 'D', 'A', 'E', 'B', 'F#', 'C#', 'G#', 'D#', 'A#']);
+    expect(allowedKeys('major')).toEqual([
+      'Cb',
+      'Gb',
+      'Db',
+      'Ab',
+      'Eb',
+      'Bb',
+      'F',
+      'C',
+      'G',
+      'D',
+      'A',
+      'E',
+      'B',
+      'F#',
+      'C#',
+    ]);
+    expect(allowedKeys('harmonic_minor')).toEqual([
+      'Ab',
+      'Eb',
+      'Bb',
+      'F',
+      'C',
+      'G',
+      'D',
+      'A',
+      'E',
+      'B',
+      'F#',
+      'C#',
+      'G#',
+      'D#',
+      'A#',
+    ]);
   });
   it('key signatures: D major 2 sharps, D minor 1 flat, C♭ major 7 flats (common practice)', () => {
     expect(keySignatureAccidentals('D', 'major')).toBe(2);
@@ -78,9 +124,17 @@ describe('chords (common practice)', () => {
     expect(diminishedSeventhNotes('B')).toEqual(['B', 'D', 'F', 'Ab']);
   });
   it('inversions rotate the chord: C major first inversion E G C', () => {
-    expect(requestPitchClasses({ kind: 'arpeggio', key: 'C', mode: 'major', inversion: 'first' })).toEqual(['E', 'G', 'C']);
-    expect(requestPitchClasses({ kind: 'dominant_seventh', key: 'C', mode: null, inversion: 'third' })).toEqual(['F', 'G', 'B', 'D']);
-    expect(() => requestPitchClasses({ kind: 'arpeggio', key: 'C', mode: 'major', inversion: 'third' })).toThrow(/no third inversion/);
-    expect(requestPitchClasses({ kind: 'passage', key: null, mode: null, inversion: null })).toBeNull();
+    expect(
+      requestPitchClasses({ kind: 'arpeggio', key: 'C', mode: 'major', inversion: 'first' }),
+    ).toEqual(['E', 'G', 'C']);
+    expect(
+      requestPitchClasses({ kind: 'dominant_seventh', key: 'C', mode: null, inversion: 'third' }),
+    ).toEqual(['F', 'G', 'B', 'D']);
+    expect(() =>
+      requestPitchClasses({ kind: 'arpeggio', key: 'C', mode: 'major', inversion: 'third' }),
+    ).toThrow(/no third inversion/);
+    expect(
+      requestPitchClasses({ kind: 'passage', key: null, mode: null, inversion: null }),
+    ).toBeNull();
   });
 });

@@ -18,7 +18,9 @@ const TONAL_SCALE: Record<Mode, string> = {
 export function normaliseKeyName(name: string): string {
   const note = Note.get(name.trim());
   if (note.empty || note.oct !== undefined || Math.abs(note.alt) > 1) {
-    throw new RangeError(`"${name}" is not a key or note name: use a letter A–G with an optional # or b (e.g. "F#", "Bb").`);
+    throw new RangeError(
+      `"${name}" is not a key or note name: use a letter A–G with an optional # or b (e.g. "F#", "Bb").`,
+    );
   }
   return note.pc;
 }
@@ -132,7 +134,8 @@ export function requestPitchClasses(request: {
       return null;
   }
   const step = INVERSION_STEP[request.inversion ?? 'root'];
-  if (step >= notes.length) throw new RangeError(`A ${kind} has no ${request.inversion} inversion.`);
+  if (step >= notes.length)
+    throw new RangeError(`A ${kind} has no ${request.inversion} inversion.`);
   return [...notes.slice(step), ...notes.slice(0, step)];
 }
 
@@ -150,7 +153,11 @@ export function displayNoteName(name: string): string {
 }
 
 /** "D harmonic minor", "F♯ major"; the mode may be absent (chromatic, sevenths). */
-export function keyLabel(key: string, mode: Mode | null, options: { unicode?: boolean } = {}): string {
+export function keyLabel(
+  key: string,
+  mode: Mode | null,
+  options: { unicode?: boolean } = {},
+): string {
   const name = options.unicode === false ? normaliseKeyName(key) : displayNoteName(key);
   return mode ? `${name} ${MODE_LABEL[mode]}` : name;
 }

@@ -1,20 +1,32 @@
 import { DurationValue } from '@tonaljs/tonal';
 import { describe, expect, it } from 'vitest';
 import { BEAT_UNITS } from './domain.js';
-import { beatUnitFraction, formatMetronomeMark, noteValueName, subdivisionName } from './noteValues.js';
+import {
+  beatUnitFraction,
+  formatMetronomeMark,
+  noteValueName,
+  subdivisionName,
+} from './noteValues.js';
 
 describe('noteValueName', () => {
   it('plain values agree with @tonaljs/tonal DurationValue names (American, British)', () => {
     for (const unit of ['whole', 'half', 'quarter', 'eighth', 'sixteenth'] as const) {
       const tonal = DurationValue.get(unit);
-      expect(tonal.names).toEqual([noteValueName(unit, 'american'), noteValueName(unit, 'british')]);
+      expect(tonal.names).toEqual([
+        noteValueName(unit, 'american'),
+        noteValueName(unit, 'british'),
+      ]);
     }
-    expect(DurationValue.get('thirty-second').names).toContain(noteValueName('thirty_second', 'british'));
+    expect(DurationValue.get('thirty-second').names).toContain(
+      noteValueName('thirty_second', 'british'),
+    );
   });
   it('British names (common practice): semibreve, minim, crotchet, quaver, semiquaver, demisemiquaver', () => {
-    expect(['whole', 'half', 'quarter', 'eighth', 'sixteenth', 'thirty_second'].map((v) => noteValueName(v as never, 'british'))).toEqual([
-      'semibreve', 'minim', 'crotchet', 'quaver', 'semiquaver', 'demisemiquaver',
-    ]);
+    expect(
+      ['whole', 'half', 'quarter', 'eighth', 'sixteenth', 'thirty_second'].map((v) =>
+        noteValueName(v as never, 'british'),
+      ),
+    ).toEqual(['semibreve', 'minim', 'crotchet', 'quaver', 'semiquaver', 'demisemiquaver']);
   });
   it('dotted values (common practice): dotted crotchet / dotted quarter', () => {
     expect(noteValueName('dotted_quarter', 'british')).toBe('dotted crotchet');
@@ -24,7 +36,8 @@ describe('noteValueName', () => {
     expect(beatUnitFraction('dotted_quarter')).toBe(DurationValue.get('q.').value);
     expect(beatUnitFraction('dotted_half')).toBe(DurationValue.get('h.').value);
     expect(beatUnitFraction('dotted_eighth')).toBe(DurationValue.get('e.').value);
-    for (const u of ['whole', 'half', 'quarter', 'eighth', 'sixteenth'] as const) expect(beatUnitFraction(u)).toBe(DurationValue.get(u).value);
+    for (const u of ['whole', 'half', 'quarter', 'eighth', 'sixteenth'] as const)
+      expect(beatUnitFraction(u)).toBe(DurationValue.get(u).value);
   });
   it('every beat unit has both names', () => {
     for (const u of BEAT_UNITS) {
@@ -42,7 +55,9 @@ describe('formatMetronomeMark', () => {
   it('"crotchet = 80" and "quarter = 80" (common practice wording)', () => {
     expect(formatMetronomeMark({ bpm: 80, beatUnit: 'quarter' }, 'british')).toBe('crotchet = 80');
     expect(formatMetronomeMark({ bpm: 80, beatUnit: 'quarter' }, 'american')).toBe('quarter = 80');
-    expect(formatMetronomeMark({ bpm: 60, beatUnit: 'dotted_quarter' }, 'british')).toBe('dotted crotchet = 60');
+    expect(formatMetronomeMark({ bpm: 60, beatUnit: 'dotted_quarter' }, 'british')).toBe(
+      'dotted crotchet = 60',
+    );
   });
   it('refuses a non-positive bpm', () => {
     expect(() => formatMetronomeMark({ bpm: 0, beatUnit: 'quarter' }, 'british')).toThrow(/bpm/);

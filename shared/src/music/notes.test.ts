@@ -28,7 +28,13 @@ describe('noteCount (design.md §4.2 formulas; counts are common practice)', () 
     expect(noteCount({ kind: 'broken_chord', octaves: 2, direction: 'up_down' })).toBe(37);
   });
   it('up and down is always 2·(one way)−1', () => {
-    for (const kind of ['scale', 'chromatic', 'arpeggio', 'broken_chord', 'dominant_seventh'] as const) {
+    for (const kind of [
+      'scale',
+      'chromatic',
+      'arpeggio',
+      'broken_chord',
+      'dominant_seventh',
+    ] as const) {
       for (let o = 1; o <= 4; o++) {
         const up = noteCount({ kind, octaves: o, direction: 'up' });
         expect(noteCount({ kind, octaves: o, direction: 'up_down' })).toBe(2 * up - 1);
@@ -45,7 +51,9 @@ describe('noteCount (design.md §4.2 formulas; counts are common practice)', () 
     expect(() => noteCount({ kind: 'scale', octaves: 9, direction: 'up' })).toThrow(/Octaves/);
   });
   it('rejects an unknown direction', () => {
-    expect(() => noteCount({ kind: 'scale', octaves: 1, direction: 'down' as never })).toThrow(/direction/);
+    expect(() => noteCount({ kind: 'scale', octaves: 1, direction: 'down' as never })).toThrow(
+      /direction/,
+    );
   });
 });
 
@@ -66,11 +74,33 @@ describe('tempo arithmetic (hand-worked examples)', () => {
     expect(s).toBeCloseTo(5.4375, 10);
   });
   it('a one-octave scale up and down (15 notes) at 60 × 2 lasts 7.5 s (hand-worked)', () => {
-    expect(itemDurationSeconds({ kind: 'scale', octaves: 1, direction: 'up_down', tempo: { bpm: 60, notesPerBeat: 2 } })).toBe(7.5);
+    expect(
+      itemDurationSeconds({
+        kind: 'scale',
+        octaves: 1,
+        direction: 'up_down',
+        tempo: { bpm: 60, notesPerBeat: 2 },
+      }),
+    ).toBe(7.5);
   });
   it('a passage uses its stated duration and refuses to guess without one', () => {
-    expect(itemDurationSeconds({ kind: 'passage', octaves: 1, direction: 'up', tempo: { bpm: 60, notesPerBeat: 1 }, durationSeconds: 45 })).toBe(45);
-    expect(() => itemDurationSeconds({ kind: 'passage', octaves: 1, direction: 'up', tempo: { bpm: 60, notesPerBeat: 1 } })).toThrow(/durationSeconds/);
+    expect(
+      itemDurationSeconds({
+        kind: 'passage',
+        octaves: 1,
+        direction: 'up',
+        tempo: { bpm: 60, notesPerBeat: 1 },
+        durationSeconds: 45,
+      }),
+    ).toBe(45);
+    expect(() =>
+      itemDurationSeconds({
+        kind: 'passage',
+        octaves: 1,
+        direction: 'up',
+        tempo: { bpm: 60, notesPerBeat: 1 },
+      }),
+    ).toThrow(/durationSeconds/);
   });
   it('rejects a tempo of zero or less', () => {
     expect(() => notesPerSecond({ bpm: 0, notesPerBeat: 4 })).toThrow(/bpm/);

@@ -1,5 +1,11 @@
 // Note counts, tempo arithmetic and item durations (design.md §4.2).
-import { isCountedKind, type CountedKind, type Direction, type RequestKind, type Tempo } from './domain.js';
+import {
+  isCountedKind,
+  type CountedKind,
+  type Direction,
+  type RequestKind,
+  type Tempo,
+} from './domain.js';
 
 /** The largest span we accept; piano scales in graded exams run to four octaves. */
 export const MAX_OCTAVES = 8;
@@ -47,13 +53,16 @@ const NOTES_PER_OCTAVE: Record<CountedKind, number> = {
 
 function assertOctaves(octaves: number): void {
   if (!Number.isInteger(octaves) || octaves < 1 || octaves > MAX_OCTAVES) {
-    throw new RangeError(`Octaves must be a whole number from 1 to ${MAX_OCTAVES}, got ${String(octaves)}.`);
+    throw new RangeError(
+      `Octaves must be a whole number from 1 to ${MAX_OCTAVES}, got ${String(octaves)}.`,
+    );
   }
 }
 
 /** Notes per second = bpm × notes per beat / 60. */
 export function notesPerSecond({ bpm, notesPerBeat }: Pick<Tempo, 'bpm' | 'notesPerBeat'>): number {
-  if (!Number.isFinite(bpm) || bpm <= 0) throw new RangeError(`bpm must be a positive number, got ${String(bpm)}.`);
+  if (!Number.isFinite(bpm) || bpm <= 0)
+    throw new RangeError(`bpm must be a positive number, got ${String(bpm)}.`);
   if (!Number.isFinite(notesPerBeat) || notesPerBeat <= 0) {
     throw new RangeError(`notesPerBeat must be a positive number, got ${String(notesPerBeat)}.`);
   }
@@ -79,7 +88,9 @@ export function itemDurationSeconds(request: DurationInput): number {
   if (notes === null) {
     const d = request.durationSeconds;
     if (d === undefined || d === null || !Number.isFinite(d) || d <= 0) {
-      throw new RangeError(`A ${request.kind} has no note count: give its durationSeconds (a positive number).`);
+      throw new RangeError(
+        `A ${request.kind} has no note count: give its durationSeconds (a positive number).`,
+      );
     }
     return d;
   }
@@ -90,7 +101,9 @@ export function itemDurationSeconds(request: DurationInput): number {
  * Notes actually played, counting both hands when hands play together; the base of the slip rate
  * (slips per 100 notes played, design.md §4.3). Null for passages and "other".
  */
-export function notesPlayed(request: Pick<NoteCountInput, 'kind' | 'octaves' | 'direction'> & { hands: 'RH' | 'LH' | 'HT' }): number | null {
+export function notesPlayed(
+  request: Pick<NoteCountInput, 'kind' | 'octaves' | 'direction'> & { hands: 'RH' | 'LH' | 'HT' },
+): number | null {
   const perHand = noteCount(request);
   if (perHand === null) return null;
   return request.hands === 'HT' ? 2 * perHand : perHand;

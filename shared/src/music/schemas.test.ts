@@ -1,6 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import type { RequirementLine, RubricCriterion, SelectionRule } from './domain.js';
-import { requirementLineBodySchema, requirementListVersionBodySchema, rubricBodySchema } from './schemas.js';
+import {
+  requirementLineBodySchema,
+  requirementListVersionBodySchema,
+  rubricBodySchema,
+} from './schemas.js';
 
 const criterion = {
   key: 'note_accuracy',
@@ -28,7 +32,13 @@ const line = {
   rubricVersionId: 'rv1',
   difficultyWeight: 1,
 };
-const list = { name: 'Grade 3 technique', grade: '3', totalMarks: 21, selectionRule: { count: 3, minPerKind: { scale: 1 } }, lines: [line] };
+const list = {
+  name: 'Grade 3 technique',
+  grade: '3',
+  totalMarks: 21,
+  selectionRule: { count: 3, minPerKind: { scale: 1 } },
+  lines: [line],
+};
 
 function paths(r: { success: boolean; error?: { issues: { path: PropertyKey[] }[] } }) {
   return (r.error?.issues ?? []).map((i) => i.path.join('.'));
@@ -41,17 +51,52 @@ describe('rubric body schema', () => {
     expect(c.maxMark).toBe(5);
   });
   it('rejects unknown fields, weight ≤ 0, a maximum over 10, naming the field', () => {
-    expect(paths(rubricBodySchema.safeParse({ name: 'x', kinds: ['scale'], criteria: [criterion], colour: 'red' }))).toContain('');
-    expect(paths(rubricBodySchema.safeParse({ name: 'x', kinds: ['scale'], criteria: [{ ...criterion, weight: 0 }] }))).toEqual(['criteria.0.weight']);
-    const over = rubricBodySchema.safeParse({ name: 'x', kinds: ['scale'], criteria: [{ ...criterion, maxMark: 11, descriptors: [{ min: 0, max: 11, text: 'a' }] }] });
+    expect(
+      paths(
+        rubricBodySchema.safeParse({
+          name: 'x',
+          kinds: ['scale'],
+          criteria: [criterion],
+          colour: 'red',
+        }),
+      ),
+    ).toContain('');
+    expect(
+      paths(
+        rubricBodySchema.safeParse({
+          name: 'x',
+          kinds: ['scale'],
+          criteria: [{ ...criterion, weight: 0 }],
+        }),
+      ),
+    ).toEqual(['criteria.0.weight']);
+    const over = rubricBodySchema.safeParse({
+      name: 'x',
+      kinds: ['scale'],
+      criteria: [{ ...criterion, maxMark: 11, descriptors: [{ min: 0, max: 11, text: 'a' }] }],
+    });
     expect(paths(over)).toContain('criteria.0.maxMark');
   });
   it('rejects duplicate keys and overlapping or out-of-range descriptors', () => {
-    expect(paths(rubricBodySchema.safeParse({ name: 'x', kinds: ['scale'], criteria: [criterion, criterion] }))).toEqual(['criteria.1.key']);
-    const bad = { ...criterion, descriptors: [{ min: 0, max: 3, text: 'a' }, { min: 3, max: 6, text: 'b' }] };
-    expect(paths(rubricBodySchema.safeParse({ name: 'x', kinds: ['scale'], criteria: [bad] }))).toEqual(
-      expect.arrayContaining(['criteria.0.descriptors.1.max', 'criteria.0.descriptors.1']),
-    );
+    expect(
+      paths(
+        rubricBodySchema.safeParse({
+          name: 'x',
+          kinds: ['scale'],
+          criteria: [criterion, criterion],
+        }),
+      ),
+    ).toEqual(['criteria.1.key']);
+    const bad = {
+      ...criterion,
+      descriptors: [
+        { min: 0, max: 3, text: 'a' },
+        { min: 3, max: 6, text: 'b' },
+      ],
+    };
+    expect(
+      paths(rubricBodySchema.safeParse({ name: 'x', kinds: ['scale'], criteria: [bad] })),
+    ).toEqual(expect.arrayContaining(['criteria.0.descriptors.1.max', 'criteria.0.descriptors.1']));
   });
 });
 
@@ -64,19 +109,38 @@ describe('requirement list schema', () => {
     expect(rule.count).toBe(3);
   });
   it('rejects a key that is not a note name', () => {
-    expect(paths(requirementLineBodySchema.safeParse({ ...line, keys: ['H'] }))).toEqual(['keys.0']);
+    expect(paths(requirementLineBodySchema.safeParse({ ...line, keys: ['H'] }))).toEqual([
+      'keys.0',
+    ]);
   });
   it('rejects modes on a chromatic line and a passage without titles or duration', () => {
-    expect(paths(requirementLineBodySchema.safeParse({ ...line, kind: 'chromatic' }))).toEqual(['modes']);
-    const p = requirementLineBodySchema.safeParse({ ...line, kind: 'passage', modes: [], keys: [], octaves: [] });
+    expect(paths(requirementLineBodySchema.safeParse({ ...line, kind: 'chromatic' }))).toEqual([
+      'modes',
+    ]);
+    const p = requirementLineBodySchema.safeParse({
+      ...line,
+      kind: 'passage',
+      modes: [],
+      keys: [],
+      octaves: [],
+    });
     expect(paths(p)).toEqual(['titles', 'durationSeconds']);
   });
   it('rejects motion without hands together and a third inversion on a triad', () => {
-    expect(paths(requirementLineBodySchema.safeParse({ ...line, hands: ['RH'] }))).toEqual(['motions']);
-    expect(paths(requirementLineBodySchema.safeParse({ ...line, kind: 'arpeggio', inversions: ['third'] }))).toEqual(['inversions']);
+    expect(paths(requirementLineBodySchema.safeParse({ ...line, hands: ['RH'] }))).toEqual([
+      'motions',
+    ]);
+    expect(
+      paths(
+        requirementLineBodySchema.safeParse({ ...line, kind: 'arpeggio', inversions: ['third'] }),
+      ),
+    ).toEqual(['inversions']);
   });
   it('rejects minimums above the count and a minimum for a kind without lines', () => {
-    const r = requirementListVersionBodySchema.safeParse({ ...list, selectionRule: { count: 1, minPerKind: { scale: 1, arpeggio: 1 } } });
+    const r = requirementListVersionBodySchema.safeParse({
+      ...list,
+      selectionRule: { count: 1, minPerKind: { scale: 1, arpeggio: 1 } },
+    });
     expect(paths(r)).toEqual(['selectionRule.minPerKind.arpeggio', 'selectionRule.minPerKind']);
   });
   it('rejects unknown fields in a line', () => {

@@ -46,24 +46,44 @@ export const rubricCriterionSchema = z
     key: z
       .string()
       .trim()
-      .regex(/^[a-z][a-z0-9_]{0,39}$/, 'Use lower-case letters, digits and _ (start with a letter, at most 40).'),
+      .regex(
+        /^[a-z][a-z0-9_]{0,39}$/,
+        'Use lower-case letters, digits and _ (start with a letter, at most 40).',
+      ),
     label: z.string().trim().min(1, 'Enter a label.').max(120),
     description: z.string().trim().max(2000).optional(),
     weight: z.number().positive('Weight must be greater than 0.').max(100),
-    maxMark: z.number().int('Maximum mark must be a whole number.').min(1, 'Maximum mark is 1 to 10.').max(10, 'Maximum mark is 1 to 10.'),
+    maxMark: z
+      .number()
+      .int('Maximum mark must be a whole number.')
+      .min(1, 'Maximum mark is 1 to 10.')
+      .max(10, 'Maximum mark is 1 to 10.'),
     descriptors: z.array(levelDescriptorSchema).min(1, 'Give at least one level descriptor.'),
   })
   .superRefine((c, ctx) => {
     // Descriptors cover marks or bands of marks within 0..maxMark, without overlap.
     const seen = new Set<number>();
     c.descriptors.forEach((d, i) => {
-      if (d.min > d.max) ctx.addIssue({ code: 'custom', path: ['descriptors', i, 'min'], message: 'min must not exceed max.' });
+      if (d.min > d.max)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['descriptors', i, 'min'],
+          message: 'min must not exceed max.',
+        });
       if (d.max > c.maxMark) {
-        ctx.addIssue({ code: 'custom', path: ['descriptors', i, 'max'], message: `Above the maximum mark (${c.maxMark}).` });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['descriptors', i, 'max'],
+          message: `Above the maximum mark (${c.maxMark}).`,
+        });
       }
       for (let m = d.min; m <= Math.min(d.max, c.maxMark); m++) {
         if (seen.has(m)) {
-          ctx.addIssue({ code: 'custom', path: ['descriptors', i], message: `Mark ${m} is described twice.` });
+          ctx.addIssue({
+            code: 'custom',
+            path: ['descriptors', i],
+            message: `Mark ${m} is described twice.`,
+          });
           break;
         }
         seen.add(m);
@@ -80,7 +100,12 @@ export const rubricBodySchema = z
   .superRefine((r, ctx) => {
     const keys = new Map<string, number>();
     r.criteria.forEach((c, i) => {
-      if (keys.has(c.key)) ctx.addIssue({ code: 'custom', path: ['criteria', i, 'key'], message: `Key "${c.key}" is used twice.` });
+      if (keys.has(c.key))
+        ctx.addIssue({
+          code: 'custom',
+          path: ['criteria', i, 'key'],
+          message: `Key "${c.key}" is used twice.`,
+        });
       keys.set(c.key, i);
     });
   });
@@ -89,7 +114,10 @@ export type RubricBody = z.infer<typeof rubricBodySchema>;
 // ---------- Requirement lists ----------
 
 export const tempoSchema = z.strictObject({
-  bpm: z.number().min(20, 'Tempo is 20 to 320 beats per minute.').max(320, 'Tempo is 20 to 320 beats per minute.'),
+  bpm: z
+    .number()
+    .min(20, 'Tempo is 20 to 320 beats per minute.')
+    .max(320, 'Tempo is 20 to 320 beats per minute.'),
   beatUnit: beatUnitSchema,
   notesPerBeat: z.number().int('Notes per beat must be a whole number.').min(1).max(12),
 });
@@ -100,7 +128,9 @@ export const requirementLineBodySchema = z
     id: z.string().trim().min(1).max(64).optional(),
     kind: requestKindSchema,
     label: z.string().trim().max(200).optional(),
-    keys: uniqueList(z.string().trim().refine(isKeyName, 'Not a key or note name (e.g. "F#", "Bb").')),
+    keys: uniqueList(
+      z.string().trim().refine(isKeyName, 'Not a key or note name (e.g. "F#", "Bb").'),
+    ),
     modes: uniqueList(modeSchema),
     hands: uniqueList(handsSchema).min(1, 'Choose at least one hand option.'),
     motions: uniqueList(motionSchema),
@@ -123,16 +153,34 @@ export const requirementLineBodySchema = z
       need(line.keys.length > 0, 'keys', 'Give at least one key or starting note.');
       need(line.octaves.length > 0, 'octaves', 'Give at least one octave option.');
     } else {
-      need((line.titles?.length ?? 0) > 0, 'titles', `A ${line.kind} line needs at least one title.`);
-      need(line.durationSeconds !== undefined, 'durationSeconds', `A ${line.kind} line needs its playing time in seconds.`);
+      need(
+        (line.titles?.length ?? 0) > 0,
+        'titles',
+        `A ${line.kind} line needs at least one title.`,
+      );
+      need(
+        line.durationSeconds !== undefined,
+        'durationSeconds',
+        `A ${line.kind} line needs its playing time in seconds.`,
+      );
     }
     if (isModalKind(line.kind)) need(line.modes.length > 0, 'modes', 'Choose at least one mode.');
     else need(line.modes.length === 0, 'modes', `Modes do not apply to a ${line.kind}.`);
-    if (!isInvertibleKind(line.kind)) need(line.inversions.length === 0, 'inversions', `Inversions do not apply to a ${line.kind}.`);
+    if (!isInvertibleKind(line.kind))
+      need(
+        line.inversions.length === 0,
+        'inversions',
+        `Inversions do not apply to a ${line.kind}.`,
+      );
     if (line.inversions.includes('third')) {
-      need(line.kind === 'dominant_seventh' || line.kind === 'diminished_seventh', 'inversions', 'Only seventh chords have a third inversion.');
+      need(
+        line.kind === 'dominant_seventh' || line.kind === 'diminished_seventh',
+        'inversions',
+        'Only seventh chords have a third inversion.',
+      );
     }
-    if (line.motions.length > 0) need(line.hands.includes('HT'), 'motions', 'Motion applies only to hands together (HT).');
+    if (line.motions.length > 0)
+      need(line.hands.includes('HT'), 'motions', 'Motion applies only to hands together (HT).');
   });
 export type RequirementLineBody = z.infer<typeof requirementLineBodySchema>;
 
@@ -155,16 +203,29 @@ export const requirementListVersionBodySchema = z
     for (const [kind, min] of Object.entries(minPerKind)) {
       sum += min ?? 0;
       if ((min ?? 0) > 0 && !list.lines.some((l) => l.kind === kind)) {
-        ctx.addIssue({ code: 'custom', path: ['selectionRule', 'minPerKind', kind], message: `No ${kind} line to draw from.` });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['selectionRule', 'minPerKind', kind],
+          message: `No ${kind} line to draw from.`,
+        });
       }
     }
     if (sum > count) {
-      ctx.addIssue({ code: 'custom', path: ['selectionRule', 'minPerKind'], message: `The minimums add up to ${sum}, more than the ${count} requests asked.` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['selectionRule', 'minPerKind'],
+        message: `The minimums add up to ${sum}, more than the ${count} requests asked.`,
+      });
     }
     const ids = new Set<string>();
     list.lines.forEach((l, i) => {
       if (l.id === undefined) return;
-      if (ids.has(l.id)) ctx.addIssue({ code: 'custom', path: ['lines', i, 'id'], message: `Line id "${l.id}" is used twice.` });
+      if (ids.has(l.id))
+        ctx.addIssue({
+          code: 'custom',
+          path: ['lines', i, 'id'],
+          message: `Line id "${l.id}" is used twice.`,
+        });
       ids.add(l.id);
     });
   });

@@ -1,5 +1,10 @@
 // Slot lengths and the layout of a sitting's day (design.md §4.2, issue 5 §1–§3).
-import type { RequirementLine, RequirementListVersion, SelectionRule, Substitution } from '../music/domain.js';
+import type {
+  RequirementLine,
+  RequirementListVersion,
+  SelectionRule,
+  Substitution,
+} from '../music/domain.js';
 import { isCountedKind, REQUEST_KINDS } from '../music/domain.js';
 import { itemDurationSeconds } from '../music/notes.js';
 import { lineRequestCount } from '../draw/draw.js';
@@ -31,10 +36,16 @@ export interface SlotPlan {
   assumed: { lineId: string; kind: RequirementLine['kind']; seconds: number }[];
 }
 
-const DEFAULTS = { perRequestOverheadSeconds: 20, greetingSeconds: 60, writeUpGapMinutes: 0, extraTimePercent: 0 };
+const DEFAULTS = {
+  perRequestOverheadSeconds: 20,
+  greetingSeconds: 60,
+  writeUpGapMinutes: 0,
+  extraTimePercent: 0,
+};
 
 function nonNegative(name: string, v: number): number {
-  if (!Number.isFinite(v) || v < 0) throw new RangeError(`${name} must be a number ≥ 0, got ${String(v)}.`);
+  if (!Number.isFinite(v) || v < 0)
+    throw new RangeError(`${name} must be a number ≥ 0, got ${String(v)}.`);
   return v;
 }
 
@@ -50,11 +61,24 @@ function nonNegative(name: string, v: number): number {
  *   not the examiner's write-up gap, which is added last.
  * - The sum is rounded up to a whole minute.
  */
-export function planSlot(list: Pick<RequirementListVersion, 'lines' | 'selectionRule'>, options: SlotPlanOptions = {}): SlotPlan {
-  const overhead = nonNegative('perRequestOverheadSeconds', options.perRequestOverheadSeconds ?? DEFAULTS.perRequestOverheadSeconds);
-  const greeting = nonNegative('greetingSeconds', options.greetingSeconds ?? DEFAULTS.greetingSeconds);
-  const writeUp = nonNegative('writeUpGapMinutes', options.writeUpGapMinutes ?? DEFAULTS.writeUpGapMinutes) * 60;
-  const extraPct = nonNegative('extraTimePercent', options.extraTimePercent ?? DEFAULTS.extraTimePercent);
+export function planSlot(
+  list: Pick<RequirementListVersion, 'lines' | 'selectionRule'>,
+  options: SlotPlanOptions = {},
+): SlotPlan {
+  const overhead = nonNegative(
+    'perRequestOverheadSeconds',
+    options.perRequestOverheadSeconds ?? DEFAULTS.perRequestOverheadSeconds,
+  );
+  const greeting = nonNegative(
+    'greetingSeconds',
+    options.greetingSeconds ?? DEFAULTS.greetingSeconds,
+  );
+  const writeUp =
+    nonNegative('writeUpGapMinutes', options.writeUpGapMinutes ?? DEFAULTS.writeUpGapMinutes) * 60;
+  const extraPct = nonNegative(
+    'extraTimePercent',
+    options.extraTimePercent ?? DEFAULTS.extraTimePercent,
+  );
   const rule = options.rule ?? list.selectionRule;
   const subs = options.substitutions ?? [];
 
@@ -63,10 +87,17 @@ export function planSlot(list: Pick<RequirementListVersion, 'lines' | 'selection
   for (const line of list.lines) {
     const applies = (s: Substitution) => !s.appliesTo || s.appliesTo.includes(line.kind);
     const counted = isCountedKind(line.kind);
-    const maxOct = subs.filter((s) => s.type === 'max_octaves' && applies(s)).reduce((m, s) => Math.min(m, s.type === 'max_octaves' ? s.octaves : m), Infinity);
+    const maxOct = subs
+      .filter((s) => s.type === 'max_octaves' && applies(s))
+      .reduce((m, s) => Math.min(m, s.type === 'max_octaves' ? s.octaves : m), Infinity);
     const octaves = counted ? Math.min(Math.max(...line.octaves), maxOct) : 1;
-    const direction = !line.directions || line.directions.length === 0 || line.directions.includes('up_down') ? 'up_down' : 'up';
-    const pct = subs.filter((s) => s.type === 'tempo_percent' && applies(s)).reduce((p, s) => (s.type === 'tempo_percent' ? (p * s.percent) / 100 : p), 1);
+    const direction =
+      !line.directions || line.directions.length === 0 || line.directions.includes('up_down')
+        ? 'up_down'
+        : 'up';
+    const pct = subs
+      .filter((s) => s.type === 'tempo_percent' && applies(s))
+      .reduce((p, s) => (s.type === 'tempo_percent' ? (p * s.percent) / 100 : p), 1);
     let playing: number;
     try {
       playing = itemDurationSeconds({
@@ -80,9 +111,18 @@ export function planSlot(list: Pick<RequirementListVersion, 'lines' | 'selection
       throw new RangeError(`Line "${line.label ?? line.id}": ${(e as Error).message}`);
     }
     // Hands separately: a line that may be asked hands together may cost two requests.
-    const split = line.hands.includes('HT') && subs.some((s) => s.type === 'hands_separately' && applies(s)) ? 2 : 1;
+    const split =
+      line.hands.includes('HT') && subs.some((s) => s.type === 'hands_separately' && applies(s))
+        ? 2
+        : 1;
     const n = lineRequestCount(line);
-    for (let i = 0; i < n; i++) items.push({ line, playing: playing * split, seconds: (playing + overhead) * split, requests: split });
+    for (let i = 0; i < n; i++)
+      items.push({
+        line,
+        playing: playing * split,
+        seconds: (playing + overhead) * split,
+        requests: split,
+      });
   }
 
   const byLongest = (a: Item, b: Item) => b.seconds - a.seconds;
@@ -91,7 +131,10 @@ export function planSlot(list: Pick<RequirementListVersion, 'lines' | 'selection
   for (const kind of REQUEST_KINDS) {
     const min = rule.minPerKind[kind] ?? 0;
     const pool = items.filter((i) => i.line.kind === kind).sort(byLongest);
-    if (pool.length < min) throw new RangeError(`The rule asks for ${min} ${kind} request(s); the list offers ${pool.length}.`);
+    if (pool.length < min)
+      throw new RangeError(
+        `The rule asks for ${min} ${kind} request(s); the list offers ${pool.length}.`,
+      );
     for (const it of pool.slice(0, min)) {
       chosen.push(it);
       taken.add(it);
@@ -99,7 +142,10 @@ export function planSlot(list: Pick<RequirementListVersion, 'lines' | 'selection
   }
   const rest = items.filter((i) => !taken.has(i)).sort(byLongest);
   const need = rule.count - chosen.length;
-  if (rest.length < need) throw new RangeError(`The rule asks for ${rule.count} requests; the list offers ${items.length}.`);
+  if (rest.length < need)
+    throw new RangeError(
+      `The rule asks for ${rule.count} requests; the list offers ${items.length}.`,
+    );
   chosen.push(...rest.slice(0, need));
 
   const playingSeconds = chosen.reduce((s, i) => s + i.playing, 0);
@@ -120,7 +166,10 @@ export function planSlot(list: Pick<RequirementListVersion, 'lines' | 'selection
 }
 
 /** Suggested slot length in whole minutes (see planSlot for the assumptions). */
-export function planSlotMinutes(list: Pick<RequirementListVersion, 'lines' | 'selectionRule'>, options: SlotPlanOptions = {}): number {
+export function planSlotMinutes(
+  list: Pick<RequirementListVersion, 'lines' | 'selectionRule'>,
+  options: SlotPlanOptions = {},
+): number {
   return planSlot(list, options).minutes;
 }
 
@@ -135,7 +184,8 @@ export function parseClock(text: string): number {
 
 /** Minutes from local midnight as "HH:MM" (24-hour); 1440 and beyond are refused. */
 export function formatClock(minutes: number): string {
-  if (!Number.isInteger(minutes) || minutes < 0 || minutes >= 24 * 60) throw new RangeError(`${String(minutes)} is not a minute of the day.`);
+  if (!Number.isInteger(minutes) || minutes < 0 || minutes >= 24 * 60)
+    throw new RangeError(`${String(minutes)} is not a minute of the day.`);
   return `${String(Math.floor(minutes / 60)).padStart(2, '0')}:${String(minutes % 60).padStart(2, '0')}`;
 }
 
@@ -194,13 +244,17 @@ export function layoutSlots(input: LayoutInput): Layout {
   const dayEnd = input.dayEnd === undefined ? 24 * 60 : toMinutes(input.dayEnd);
   if (dayEnd <= dayStart) throw new RangeError('The day must end after it starts.');
   const base = input.slotMinutes;
-  if (!Number.isInteger(base) || base < 1) throw new RangeError(`slotMinutes must be a whole number ≥ 1, got ${String(base)}.`);
+  if (!Number.isInteger(base) || base < 1)
+    throw new RangeError(`slotMinutes must be a whole number ≥ 1, got ${String(base)}.`);
   const changeover = input.changeoverMinutes ?? 0;
-  if (!Number.isInteger(changeover) || changeover < 0) throw new RangeError('changeoverMinutes must be a whole number ≥ 0.');
+  if (!Number.isInteger(changeover) || changeover < 0)
+    throw new RangeError('changeoverMinutes must be a whole number ≥ 0.');
   const breaks = (input.breaks ?? [])
     .map((b) => ({ start: toMinutes(b.start), end: toMinutes(b.end) }))
     .sort((a, b) => a.start - b.start);
-  for (const b of breaks) if (b.end <= b.start) throw new RangeError(`A break must end after it starts (${formatClock(b.start)}).`);
+  for (const b of breaks)
+    if (b.end <= b.start)
+      throw new RangeError(`A break must end after it starts (${formatClock(b.start)}).`);
   const ids = new Set<string>();
 
   const slots: PlannedSlot[] = [];
@@ -215,9 +269,11 @@ export function layoutSlots(input: LayoutInput): Layout {
     }
     const extra = c.extraTimePercent ?? 0;
     const rest = c.restBreakMinutes ?? 0;
-    if (extra < 0 || rest < 0) throw new RangeError(`Candidate "${c.id}": extra time and rest breaks cannot be negative.`);
+    if (extra < 0 || rest < 0)
+      throw new RangeError(`Candidate "${c.id}": extra time and rest breaks cannot be negative.`);
     const own = c.slotMinutes ?? Math.ceil((base * (100 + extra)) / 100 - 1e-9);
-    if (!Number.isInteger(own) || own < 1) throw new RangeError(`Candidate "${c.id}": slotMinutes must be a whole number ≥ 1.`);
+    if (!Number.isInteger(own) || own < 1)
+      throw new RangeError(`Candidate "${c.id}": slotMinutes must be a whole number ≥ 1.`);
     const minutes = own + Math.ceil(rest);
     let start = cursor;
     for (const b of breaks) if (start < b.end && start + minutes > b.start) start = b.end;
@@ -226,13 +282,23 @@ export function layoutSlots(input: LayoutInput): Layout {
       unplaced.push(c.id);
       continue;
     }
-    slots.push({ id: c.id, start, end, minutes, startTime: formatClock(start), endTime: end === 24 * 60 ? '24:00' : formatClock(end) });
+    slots.push({
+      id: c.id,
+      start,
+      end,
+      minutes,
+      startTime: formatClock(start),
+      endTime: end === 24 * 60 ? '24:00' : formatClock(end),
+    });
     cursor = end + changeover;
   }
   return { slots, unplaced };
 }
 
 /** Whether two half-open intervals [start, end) overlap: back-to-back slots do not. */
-export function intervalsOverlap(a: { start: number; end: number }, b: { start: number; end: number }): boolean {
+export function intervalsOverlap(
+  a: { start: number; end: number },
+  b: { start: number; end: number },
+): boolean {
   return a.start < b.end && b.start < a.end;
 }

@@ -37,14 +37,18 @@ export interface EntrenchedOptions {
  * breaking nor extending a run; a completed sitting that did not assess the criterion breaks it.
  * Only current issues are returned: runs that reach the latest completed sitting.
  */
-export function entrenchedIssues(sittings: readonly SittingEvidence[], options: EntrenchedOptions = {}): EntrenchedIssue[] {
+export function entrenchedIssues(
+  sittings: readonly SittingEvidence[],
+  options: EntrenchedOptions = {},
+): EntrenchedIssue[] {
   const threshold = options.threshold ?? 0.6;
   const run = options.run ?? 3;
   const minExaminers = options.minExaminers ?? 2;
   const done = sittings
     .map((s, i) => {
       const ms = Date.parse(s.date);
-      if (!Number.isFinite(ms)) throw new RangeError(`Sitting ${i + 1}: "${s.date}" is not a date.`);
+      if (!Number.isFinite(ms))
+        throw new RangeError(`Sitting ${i + 1}: "${s.date}" is not a date.`);
       return { s, ms };
     })
     .filter(({ s }) => s.outcome === 'completed')
@@ -52,7 +56,8 @@ export function entrenchedIssues(sittings: readonly SittingEvidence[], options: 
     .map(({ s }) => s);
 
   const labels = new Map<string, string>();
-  for (const s of done) for (const c of s.criteria) if (!labels.has(c.key)) labels.set(c.key, c.label ?? c.key);
+  for (const s of done)
+    for (const c of s.criteria) if (!labels.has(c.key)) labels.set(c.key, c.label ?? c.key);
 
   const issues: EntrenchedIssue[] = [];
   for (const [key, label] of labels) {
@@ -84,7 +89,8 @@ export function entrenchedIssues(sittings: readonly SittingEvidence[], options: 
 
 /** Slips per 100 notes played (design.md §4.3). */
 export function slipRate({ slips, notesPlayed }: { slips: number; notesPlayed: number }): number {
-  if (!Number.isInteger(slips) || slips < 0) throw new RangeError('slips must be a whole number ≥ 0.');
+  if (!Number.isInteger(slips) || slips < 0)
+    throw new RangeError('slips must be a whole number ≥ 0.');
   if (!(notesPlayed > 0)) throw new RangeError('notesPlayed must be greater than 0.');
   return (slips / notesPlayed) * 100;
 }
@@ -93,10 +99,13 @@ export function slipRate({ slips, notesPlayed }: { slips: number; notesPlayed: n
  * Consistency over a period: the share of attempts at a request with no slip (design.md §4.3).
  * Null when there is no attempt.
  */
-export function consistencyShare(attempts: readonly { slips: number }[]): { share: number; n: number } | null {
+export function consistencyShare(
+  attempts: readonly { slips: number }[],
+): { share: number; n: number } | null {
   if (attempts.length === 0) return null;
   const clean = attempts.filter((a) => {
-    if (!Number.isInteger(a.slips) || a.slips < 0) throw new RangeError('slips must be whole numbers ≥ 0.');
+    if (!Number.isInteger(a.slips) || a.slips < 0)
+      throw new RangeError('slips must be whole numbers ≥ 0.');
     return a.slips === 0;
   }).length;
   return { share: clean / attempts.length, n: attempts.length };

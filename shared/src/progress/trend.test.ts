@@ -1,6 +1,12 @@
 import { linearRegression, quantileRank } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
-import { MIN_STUDENTS_FOR_PERCENTILE, percentileInGrade, splitComparable, trend, type ProgressPoint } from './trend.js';
+import {
+  MIN_STUDENTS_FOR_PERCENTILE,
+  percentileInGrade,
+  splitComparable,
+  trend,
+  type ProgressPoint,
+} from './trend.js';
 
 // Hand-worked: sittings 30 days apart with 50, 56, 58, 66 %. In 30-day units x = 0..3:
 // Sxx = 5, Sxy = 25 → slope 5 per 30 days, intercept 50; residuals 0, 1, −2, 1 → SSE = 6;
@@ -30,16 +36,24 @@ describe('trend', () => {
       { date: '2026-05-30', percent: 70 },
     ];
     const t0 = Date.parse('2025-09-15');
-    const { m } = linearRegression(irregular.map((p) => [(Date.parse(p.date as string) - t0) / 86_400_000, p.percent]));
+    const { m } = linearRegression(
+      irregular.map((p) => [(Date.parse(p.date as string) - t0) / 86_400_000, p.percent]),
+    );
     expect(trend(irregular).slopePer30Days).toBeCloseTo(m * 30, 10);
   });
   it('absent sittings stay out; the order of input does not matter', () => {
-    const withAbsent = [...points].reverse().concat([{ date: '2026-03-20', percent: 0, outcome: 'absent' }]);
+    const withAbsent = [...points]
+      .reverse()
+      .concat([{ date: '2026-03-20', percent: 0, outcome: 'absent' }]);
     expect(trend(withAbsent).slopePer30Days).toBeCloseTo(5, 10);
     expect(trend(withAbsent).n).toBe(4);
   });
   it('too few points: no slope below 2, no SE below 3', () => {
-    expect(trend(points.slice(0, 1))).toMatchObject({ slopePer30Days: null, standardError: null, firstToLatest: { change: 0 } });
+    expect(trend(points.slice(0, 1))).toMatchObject({
+      slopePer30Days: null,
+      standardError: null,
+      firstToLatest: { change: 0 },
+    });
     expect(trend(points.slice(0, 2)).standardError).toBeNull();
     expect(trend([])).toMatchObject({ n: 0, firstToLatest: null });
   });
@@ -60,7 +74,8 @@ describe('trend', () => {
 describe('percentileInGrade', () => {
   const grade = [42, 55, 61, 61, 67, 70, 73, 78, 81, 90, 95];
   it('agrees with simple-statistics quantileRank (× 100), with and without ties', () => {
-    for (const v of [61, 70, 95, 42, 65, 30, 99]) expect(percentileInGrade(v, grade)).toBeCloseTo(quantileRank(grade, v) * 100, 10);
+    for (const v of [61, 70, 95, 42, 65, 30, 99])
+      expect(percentileInGrade(v, grade)).toBeCloseTo(quantileRank(grade, v) * 100, 10);
   });
   it(`is hidden (null) below ${MIN_STUDENTS_FOR_PERCENTILE} students (design.md §4.6)`, () => {
     expect(percentileInGrade(70, grade.slice(0, 9))).toBeNull();

@@ -29,15 +29,21 @@ const DAY_MS = 86_400_000;
 
 function toMs(date: string | number, i: number): number {
   const ms = typeof date === 'number' ? date : Date.parse(date);
-  if (!Number.isFinite(ms)) throw new RangeError(`Point ${i + 1}: "${String(date)}" is not a date.`);
+  if (!Number.isFinite(ms))
+    throw new RangeError(`Point ${i + 1}: "${String(date)}" is not a date.`);
   return ms;
 }
 
 function completedSorted(points: readonly ProgressPoint[]): { ms: number; percent: number }[] {
   return points
     .map((p, i) => {
-      if (!Number.isFinite(p.percent) || p.percent < 0 || p.percent > 100) throw new RangeError(`Point ${i + 1}: percent must be 0..100.`);
-      return { ms: toMs(p.date, i), percent: p.percent, completed: (p.outcome ?? 'completed') === 'completed' };
+      if (!Number.isFinite(p.percent) || p.percent < 0 || p.percent > 100)
+        throw new RangeError(`Point ${i + 1}: percent must be 0..100.`);
+      return {
+        ms: toMs(p.date, i),
+        percent: p.percent,
+        completed: (p.outcome ?? 'completed') === 'completed',
+      };
     })
     .filter((p) => p.completed)
     .sort((a, b) => a.ms - b.ms)
@@ -52,8 +58,16 @@ function completedSorted(points: readonly ProgressPoint[]): { ms: number; percen
 export function trend(points: readonly ProgressPoint[]): Trend {
   const pts = completedSorted(points);
   const n = pts.length;
-  const firstToLatest = n >= 1 ? { first: pts[0]!.percent, latest: pts[n - 1]!.percent, change: pts[n - 1]!.percent - pts[0]!.percent } : null;
-  if (n < 2) return { n, slopePer30Days: null, standardError: null, intercept: null, firstToLatest };
+  const firstToLatest =
+    n >= 1
+      ? {
+          first: pts[0]!.percent,
+          latest: pts[n - 1]!.percent,
+          change: pts[n - 1]!.percent - pts[0]!.percent,
+        }
+      : null;
+  if (n < 2)
+    return { n, slopePer30Days: null, standardError: null, intercept: null, firstToLatest };
   const t0 = pts[0]!.ms;
   const xs = pts.map((p) => (p.ms - t0) / DAY_MS);
   const ys = pts.map((p) => p.percent);
@@ -65,7 +79,8 @@ export function trend(points: readonly ProgressPoint[]): Trend {
     sxx += ((xs[i] as number) - mx) ** 2;
     sxy += ((xs[i] as number) - mx) * ((ys[i] as number) - my);
   }
-  if (sxx === 0) return { n, slopePer30Days: null, standardError: null, intercept: null, firstToLatest };
+  if (sxx === 0)
+    return { n, slopePer30Days: null, standardError: null, intercept: null, firstToLatest };
   const b = sxy / sxx;
   const a = my - b * mx;
   let se: number | null = null;
@@ -107,7 +122,8 @@ export const MIN_STUDENTS_FOR_PERCENTILE = 10;
  */
 export function percentileInGrade(value: number, gradeValues: readonly number[]): number | null {
   if (!Number.isFinite(value)) throw new RangeError('The value must be a number.');
-  if (gradeValues.some((v) => !Number.isFinite(v))) throw new RangeError('Every grade value must be a number.');
+  if (gradeValues.some((v) => !Number.isFinite(v)))
+    throw new RangeError('Every grade value must be a number.');
   if (gradeValues.length < MIN_STUDENTS_FOR_PERCENTILE) return null;
   const sorted = [...gradeValues].sort((a, b) => a - b);
   const n = sorted.length;

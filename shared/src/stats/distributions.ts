@@ -7,8 +7,9 @@ export function logGamma(x: number): number {
   if (!(x > 0)) throw new RangeError(`logGamma needs x > 0, got ${String(x)}.`);
   if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - logGamma(1 - x);
   const c = [
-    0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059,
-    12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
+    0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313,
+    -176.61502916214059, 12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6,
+    1.5056327351493116e-7,
   ];
   const z = x - 1;
   let a = c[0] as number;
@@ -50,18 +51,23 @@ function betaContinuedFraction(x: number, a: number, b: number): number {
 
 /** Regularised incomplete beta I_x(a, b), for 0 ≤ x ≤ 1 and a, b > 0. */
 export function incompleteBeta(x: number, a: number, b: number): number {
-  if (!(a > 0) || !(b > 0)) throw new RangeError(`incompleteBeta needs a, b > 0, got ${String(a)}, ${String(b)}.`);
-  if (!(x >= 0 && x <= 1)) throw new RangeError(`incompleteBeta needs 0 ≤ x ≤ 1, got ${String(x)}.`);
+  if (!(a > 0) || !(b > 0))
+    throw new RangeError(`incompleteBeta needs a, b > 0, got ${String(a)}, ${String(b)}.`);
+  if (!(x >= 0 && x <= 1))
+    throw new RangeError(`incompleteBeta needs 0 ≤ x ≤ 1, got ${String(x)}.`);
   if (x === 0) return 0;
   if (x === 1) return 1;
-  const front = Math.exp(logGamma(a + b) - logGamma(a) - logGamma(b) + a * Math.log(x) + b * Math.log(1 - x));
+  const front = Math.exp(
+    logGamma(a + b) - logGamma(a) - logGamma(b) + a * Math.log(x) + b * Math.log(1 - x),
+  );
   // The continued fraction converges fast for x < (a+1)/(a+b+2); use symmetry otherwise.
   if (x < (a + 1) / (a + b + 2)) return (front * betaContinuedFraction(x, a, b)) / a;
   return 1 - (front * betaContinuedFraction(1 - x, b, a)) / b;
 }
 
 function checkDf(name: string, df: number): void {
-  if (!(df > 0) || !Number.isFinite(df)) throw new RangeError(`${name} must be a positive number, got ${String(df)}.`);
+  if (!(df > 0) || !Number.isFinite(df))
+    throw new RangeError(`${name} must be a positive number, got ${String(df)}.`);
 }
 
 /** P(F ≤ x) for the F distribution with (d1, d2) degrees of freedom (non-integer df allowed). */
@@ -80,7 +86,8 @@ export function fCdf(x: number, d1: number, d2: number): number {
 export function fQuantile(p: number, d1: number, d2: number): number {
   checkDf('d1', d1);
   checkDf('d2', d2);
-  if (!(p > 0 && p < 1)) throw new RangeError(`p must be strictly between 0 and 1, got ${String(p)}.`);
+  if (!(p > 0 && p < 1))
+    throw new RangeError(`p must be strictly between 0 and 1, got ${String(p)}.`);
   let lo = 0;
   let hi = 1;
   for (let i = 0; i < 200 && hi - lo > 1e-16; i++) {
@@ -94,7 +101,8 @@ export function fQuantile(p: number, d1: number, d2: number): number {
 
 /** Student's t quantile, from F(1, df) = t²: for p > ½, t_p = √F_{2p−1}(1, df). */
 export function tQuantile(p: number, df: number): number {
-  if (!(p > 0 && p < 1)) throw new RangeError(`p must be strictly between 0 and 1, got ${String(p)}.`);
+  if (!(p > 0 && p < 1))
+    throw new RangeError(`p must be strictly between 0 and 1, got ${String(p)}.`);
   if (p === 0.5) return 0;
   const t = Math.sqrt(fQuantile(Math.abs(2 * p - 1), 1, df));
   return p > 0.5 ? t : -t;

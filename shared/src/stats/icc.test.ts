@@ -57,7 +57,10 @@ describe('icc against the Shrout & Fleiss (1979) worked example', () => {
     const b = 1 + (k * rho * (n - 1)) / (n * (1 - rho));
     const v = (a * J + b * E) ** 2 / ((a * J) ** 2 / (k - 1) + (b * E) ** 2 / ((n - 1) * (k - 1)));
     const fs = fQuantile(0.975, n - 1, v);
-    expect(r.lower).toBeCloseTo((n * (B - fs * E)) / (fs * (k * J + (k * n - k - n) * E) + n * B), 10);
+    expect(r.lower).toBeCloseTo(
+      (n * (B - fs * E)) / (fs * (k * J + (k * n - k - n) * E) + n * B),
+      10,
+    );
   });
   it('intervals agree with R psych::ICC on this data to two decimals (values as commonly reproduced; from memory)', () => {
     const expected: [string, number, number][] = [
@@ -81,18 +84,37 @@ describe('icc against the Shrout & Fleiss (1979) worked example', () => {
     expect(icc(SF, 'ICC(3,k)').p).toBeLessThan(0.001);
   });
   it('perfect agreement gives 1 for every form', () => {
-    const same = [[1, 1], [4, 4], [7, 7], [3, 3]];
-    for (const form of ['ICC(1,1)', 'ICC(2,1)', 'ICC(3,1)'] as const) expect(icc(same, form).value).toBeCloseTo(1, 12);
+    const same = [
+      [1, 1],
+      [4, 4],
+      [7, 7],
+      [3, 3],
+    ];
+    for (const form of ['ICC(1,1)', 'ICC(2,1)', 'ICC(3,1)'] as const)
+      expect(icc(same, form).value).toBeCloseTo(1, 12);
   });
   it('a judge one mark higher throughout: consistency ICC(3,1) = 1, absolute agreement ICC(2,1) < 1 (Shrout & Fleiss Case 2 vs 3)', () => {
-    const offset = [[1, 2], [4, 5], [7, 8], [3, 4]];
+    const offset = [
+      [1, 2],
+      [4, 5],
+      [7, 8],
+      [3, 4],
+    ];
     expect(icc(offset, 'ICC(3,1)').value).toBeCloseTo(1, 12);
     const two = icc(offset, 'ICC(2,1)');
     expect(two.value).toBeLessThan(1);
     expect(two.lower).toBeLessThan(two.value);
   });
   it('refuses missing marks, ragged rows and too little data', () => {
-    expect(() => icc([[1, 2], [3, Number.NaN]], 'ICC(1,1)')).toThrow(/Row 2, column 2/);
+    expect(() =>
+      icc(
+        [
+          [1, 2],
+          [3, Number.NaN],
+        ],
+        'ICC(1,1)',
+      ),
+    ).toThrow(/Row 2, column 2/);
     expect(() => icc([[1, 2], [3]], 'ICC(1,1)')).toThrow(/Row 2 has 1/);
     expect(() => icc([[1, 2]], 'ICC(1,1)')).toThrow(/at least 2 targets/);
     expect(() => icc(SF, 'ICC(4,1)' as never)).toThrow(/Unknown ICC form/);

@@ -2,7 +2,14 @@
 // (Shrout & Fleiss 1979; McGraw & Wong 1996, Table 7).
 import { fCdf, fQuantile } from './distributions.js';
 
-export const ICC_FORMS = ['ICC(1,1)', 'ICC(2,1)', 'ICC(3,1)', 'ICC(1,k)', 'ICC(2,k)', 'ICC(3,k)'] as const;
+export const ICC_FORMS = [
+  'ICC(1,1)',
+  'ICC(2,1)',
+  'ICC(3,1)',
+  'ICC(1,k)',
+  'ICC(2,k)',
+  'ICC(3,k)',
+] as const;
 export type IccForm = (typeof ICC_FORMS)[number];
 
 export interface IccResult {
@@ -30,24 +37,37 @@ export interface IccResult {
  * ·,1 is the reliability of one judge; ·,k of the mean of the k judges.
  * Missing marks are not allowed: the ANOVA needs a full table (drop incomplete rows first).
  */
-export function icc(ratings: readonly (readonly number[])[], form: IccForm, options: { confidence?: number } = {}): IccResult {
-  if (!(ICC_FORMS as readonly string[]).includes(form)) throw new RangeError(`Unknown ICC form "${String(form)}"; use one of ${ICC_FORMS.join(', ')}.`);
+export function icc(
+  ratings: readonly (readonly number[])[],
+  form: IccForm,
+  options: { confidence?: number } = {},
+): IccResult {
+  if (!(ICC_FORMS as readonly string[]).includes(form))
+    throw new RangeError(`Unknown ICC form "${String(form)}"; use one of ${ICC_FORMS.join(', ')}.`);
   const confidence = options.confidence ?? 0.95;
-  if (!(confidence > 0 && confidence < 1)) throw new RangeError('confidence must be between 0 and 1.');
+  if (!(confidence > 0 && confidence < 1))
+    throw new RangeError('confidence must be between 0 and 1.');
   const n = ratings.length;
   if (n < 2) throw new RangeError('ICC needs at least 2 targets (rows).');
   const k = ratings[0]?.length ?? 0;
   if (k < 2) throw new RangeError('ICC needs at least 2 judges (columns).');
   ratings.forEach((row, i) => {
-    if (row.length !== k) throw new RangeError(`Row ${i + 1} has ${row.length} ratings, expected ${k}.`);
+    if (row.length !== k)
+      throw new RangeError(`Row ${i + 1} has ${row.length} ratings, expected ${k}.`);
     row.forEach((v, j) => {
-      if (typeof v !== 'number' || !Number.isFinite(v)) throw new RangeError(`Row ${i + 1}, column ${j + 1} is not a number (missing marks are not allowed).`);
+      if (typeof v !== 'number' || !Number.isFinite(v))
+        throw new RangeError(
+          `Row ${i + 1}, column ${j + 1} is not a number (missing marks are not allowed).`,
+        );
     });
   });
 
   const grand = ratings.reduce((s, r) => s + r.reduce((a, b) => a + b, 0), 0) / (n * k);
   const rowMeans = ratings.map((r) => r.reduce((a, b) => a + b, 0) / k);
-  const colMeans = Array.from({ length: k }, (_, j) => ratings.reduce((s, r) => s + (r[j] as number), 0) / n);
+  const colMeans = Array.from(
+    { length: k },
+    (_, j) => ratings.reduce((s, r) => s + (r[j] as number), 0) / n,
+  );
   let sst = 0;
   for (const r of ratings) for (const v of r) sst += (v - grand) ** 2;
   const ssr = k * rowMeans.reduce((s, m) => s + (m - grand) ** 2, 0);
@@ -70,7 +90,19 @@ export function icc(ratings: readonly (readonly number[])[], form: IccForm, opti
   const denominator = form.startsWith('ICC(1') ? WMS : EMS;
   if (denominator <= 1e-12 * BMS && (!form.startsWith('ICC(2') || JMS <= 1e-12 * BMS)) {
     const df2 = form.startsWith('ICC(1') ? n * (k - 1) : (n - 1) * (k - 1);
-    return { form, value: 1, lower: 1, upper: 1, n, k, f: Infinity, df1: n - 1, df2, p: 0, meanSquares };
+    return {
+      form,
+      value: 1,
+      lower: 1,
+      upper: 1,
+      n,
+      k,
+      f: Infinity,
+      df1: n - 1,
+      df2,
+      p: 0,
+      meanSquares,
+    };
   }
 
   let value: number;
@@ -102,7 +134,8 @@ export function icc(ratings: readonly (readonly number[])[], form: IccForm, opti
     // Satterthwaite's approximate degrees of freedom for the denominator (McGraw & Wong 1996).
     const a = (k * value) / (n * (1 - value));
     const b = 1 + (k * value * (n - 1)) / (n * (1 - value));
-    const v = (a * JMS + b * EMS) ** 2 / ((a * JMS) ** 2 / (k - 1) + (b * EMS) ** 2 / ((n - 1) * (k - 1)));
+    const v =
+      (a * JMS + b * EMS) ** 2 / ((a * JMS) ** 2 / (k - 1) + (b * EMS) ** 2 / ((n - 1) * (k - 1)));
     const fStar = fQuantile(q, n - 1, v);
     const fStar2 = fQuantile(q, v, n - 1);
     lower = (n * (BMS - fStar * EMS)) / (fStar * (k * JMS + (k * n - k - n) * EMS) + n * BMS);

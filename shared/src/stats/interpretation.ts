@@ -23,7 +23,8 @@ export interface InterpretationScale {
 export const KOO_LI_2016: InterpretationScale = {
   key: 'koo_li_2016',
   statistic: 'ICC',
-  source: 'Koo, T. K., & Li, M. Y. (2016). A guideline of selecting and reporting intraclass correlation coefficients for reliability research. Journal of Chiropractic Medicine, 15(2), 155–163.',
+  source:
+    'Koo, T. K., & Li, M. Y. (2016). A guideline of selecting and reporting intraclass correlation coefficients for reliability research. Journal of Chiropractic Medicine, 15(2), 155–163.',
   note: 'The authors advise judging by the 95 % confidence interval, not the point estimate alone.',
   bands: [
     { label: 'excellent', min: 0.9, inclusive: false },
@@ -36,7 +37,8 @@ export const KOO_LI_2016: InterpretationScale = {
 export const LANDIS_KOCH_1977: InterpretationScale = {
   key: 'landis_koch_1977',
   statistic: 'kappa',
-  source: 'Landis, J. R., & Koch, G. G. (1977). The measurement of observer agreement for categorical data. Biometrics, 33(1), 159–174.',
+  source:
+    'Landis, J. R., & Koch, G. G. (1977). The measurement of observer agreement for categorical data. Biometrics, 33(1), 159–174.',
   note: 'Bands as published to two decimals (0.81–1.00 almost perfect …); values are rounded to two decimals before banding.',
   bands: [
     { label: 'almost perfect', min: 0.81, inclusive: true },
@@ -51,7 +53,8 @@ export const LANDIS_KOCH_1977: InterpretationScale = {
 export const KRIPPENDORFF_2004: InterpretationScale = {
   key: 'krippendorff_2004',
   statistic: "Krippendorff's alpha",
-  source: 'Krippendorff, K. (2004). Content Analysis: An Introduction to Its Methodology (2nd ed.), §11.4. Sage.',
+  source:
+    'Krippendorff, K. (2004). Content Analysis: An Introduction to Its Methodology (2nd ed.), §11.4. Sage.',
   bands: [
     { label: 'reliable', min: 0.8, inclusive: true },
     { label: 'tentative conclusions only', min: 0.667, inclusive: true },
@@ -62,9 +65,13 @@ export const KRIPPENDORFF_2004: InterpretationScale = {
 export const INTERPRETATION_SCALES = [KOO_LI_2016, LANDIS_KOCH_1977, KRIPPENDORFF_2004] as const;
 
 /** The band label of a value on a scale, with the scale's source to show beside it. */
-export function interpret(value: number, scale: InterpretationScale): { label: string; source: string } {
+export function interpret(
+  value: number,
+  scale: InterpretationScale,
+): { label: string; source: string } {
   if (!Number.isFinite(value)) throw new RangeError(`Cannot interpret ${String(value)}.`);
   const v = scale.key === 'landis_koch_1977' ? Math.round(value * 100) / 100 : value;
-  for (const b of scale.bands) if (b.inclusive ? v >= b.min : v > b.min) return { label: b.label, source: scale.source };
+  for (const b of scale.bands)
+    if (b.inclusive ? v >= b.min : v > b.min) return { label: b.label, source: scale.source };
   return { label: scale.below, source: scale.source };
 }

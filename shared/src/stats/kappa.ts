@@ -29,8 +29,11 @@ export function cohenKappaFromTable(
   scores?: readonly number[],
 ): Omit<KappaResult, 'categories'> {
   const r = table.length;
-  if (r < 1 || table.some((row) => row.length !== r)) throw new RangeError('The table must be square (categories × categories).');
-  for (const row of table) for (const v of row) if (!(Number.isFinite(v) && v >= 0)) throw new RangeError('Counts must be numbers ≥ 0.');
+  if (r < 1 || table.some((row) => row.length !== r))
+    throw new RangeError('The table must be square (categories × categories).');
+  for (const row of table)
+    for (const v of row)
+      if (!(Number.isFinite(v) && v >= 0)) throw new RangeError('Counts must be numbers ≥ 0.');
   const n = table.reduce((s, row) => s + row.reduce((a, b) => a + b, 0), 0);
   if (n === 0) throw new RangeError('No ratings to compare.');
   const x = scores ?? Array.from({ length: r }, (_, i) => i);
@@ -51,7 +54,8 @@ export function cohenKappaFromTable(
       po += w(i, j) * (p[i]![j] as number);
       pe += w(i, j) * (rowM[i] as number) * (colM[j] as number);
     }
-  if (pe >= 1 - 1e-12) throw new RangeError('Chance agreement is complete (one category only): kappa is undefined.');
+  if (pe >= 1 - 1e-12)
+    throw new RangeError('Chance agreement is complete (one category only): kappa is undefined.');
   const value = (po - pe) / (1 - pe);
   // Fleiss, Cohen & Everitt (1969), non-null large-sample variance of weighted kappa.
   const wRow = Array.from({ length: r }, (_, i) => colM.reduce((s, c, j) => s + w(i, j) * c, 0));
@@ -59,10 +63,19 @@ export function cohenKappaFromTable(
   let sum = 0;
   for (let i = 0; i < r; i++)
     for (let j = 0; j < r; j++) {
-      sum += (p[i]![j] as number) * (w(i, j) - ((wRow[i] as number) + (wCol[j] as number)) * (1 - value)) ** 2;
+      sum +=
+        (p[i]![j] as number) *
+        (w(i, j) - ((wRow[i] as number) + (wCol[j] as number)) * (1 - value)) ** 2;
     }
   const variance = (sum - (value - pe * (1 - value)) ** 2) / (n * (1 - pe) ** 2);
-  return { value, observed: po, expected: pe, n, standardError: Math.sqrt(Math.max(0, variance)), weights };
+  return {
+    value,
+    observed: po,
+    expected: pe,
+    n,
+    standardError: Math.sqrt(Math.max(0, variance)),
+    weights,
+  };
 }
 
 /**
@@ -76,7 +89,10 @@ export function cohenKappa<T extends string | number>(
   weights: KappaWeights = 'none',
   options: { categories?: readonly T[] } = {},
 ): KappaResult {
-  if (a.length !== b.length) throw new RangeError(`The raters rated different numbers of items (${a.length} and ${b.length}).`);
+  if (a.length !== b.length)
+    throw new RangeError(
+      `The raters rated different numbers of items (${a.length} and ${b.length}).`,
+    );
   const pairs: [T, T][] = [];
   a.forEach((v, i) => {
     const w = b[i];
@@ -87,15 +103,21 @@ export function cohenKappa<T extends string | number>(
   if (options.categories) {
     categories = [...options.categories];
     for (const [u, v] of pairs) {
-      if (!categories.includes(u)) throw new RangeError(`Category "${String(u)}" is not in the list of categories.`);
-      if (!categories.includes(v)) throw new RangeError(`Category "${String(v)}" is not in the list of categories.`);
+      if (!categories.includes(u))
+        throw new RangeError(`Category "${String(u)}" is not in the list of categories.`);
+      if (!categories.includes(v))
+        throw new RangeError(`Category "${String(v)}" is not in the list of categories.`);
     }
   } else {
     const seen = [...new Set(pairs.flat())];
     if (weights !== 'none' && seen.some((c) => typeof c !== 'number')) {
-      throw new RangeError('Weighted kappa on text categories needs their order: pass options.categories.');
+      throw new RangeError(
+        'Weighted kappa on text categories needs their order: pass options.categories.',
+      );
     }
-    categories = seen.sort((u, v) => (typeof u === 'number' && typeof v === 'number' ? u - v : String(u).localeCompare(String(v))));
+    categories = seen.sort((u, v) =>
+      typeof u === 'number' && typeof v === 'number' ? u - v : String(u).localeCompare(String(v)),
+    );
   }
   const index = new Map(categories.map((c, i) => [c, i]));
   const table = categories.map(() => categories.map(() => 0));
@@ -127,18 +149,33 @@ export function fleissKappa(counts: readonly (readonly number[])[]): FleissKappa
   if (q < 2) throw new RangeError('At least two categories are needed.');
   const m = (counts[0] as readonly number[]).reduce((a, b) => a + b, 0);
   counts.forEach((row, i) => {
-    if (row.length !== q) throw new RangeError(`Subject ${i + 1} has ${row.length} categories, expected ${q}.`);
-    if (row.some((v) => !Number.isInteger(v) || v < 0)) throw new RangeError(`Subject ${i + 1}: counts must be whole numbers ≥ 0.`);
+    if (row.length !== q)
+      throw new RangeError(`Subject ${i + 1} has ${row.length} categories, expected ${q}.`);
+    if (row.some((v) => !Number.isInteger(v) || v < 0))
+      throw new RangeError(`Subject ${i + 1}: counts must be whole numbers ≥ 0.`);
     const s = row.reduce((a, b) => a + b, 0);
-    if (s !== m) throw new RangeError(`Subject ${i + 1} has ${s} ratings, the first has ${m}: every subject needs the same number of raters.`);
+    if (s !== m)
+      throw new RangeError(
+        `Subject ${i + 1} has ${s} ratings, the first has ${m}: every subject needs the same number of raters.`,
+      );
   });
   if (m < 2) throw new RangeError('At least two raters per subject are needed.');
-  const shares = Array.from({ length: q }, (_, j) => counts.reduce((s, row) => s + (row[j] as number), 0) / (N * m));
+  const shares = Array.from(
+    { length: q },
+    (_, j) => counts.reduce((s, row) => s + (row[j] as number), 0) / (N * m),
+  );
   const Pi = counts.map((row) => (row.reduce((s, v) => s + v * v, 0) - m) / (m * (m - 1)));
   const Pbar = Pi.reduce((a, b) => a + b, 0) / N;
   const Pe = shares.reduce((s, p) => s + p * p, 0);
   if (Pe >= 1 - 1e-12) throw new RangeError('Every rating is in one category: kappa is undefined.');
-  return { value: (Pbar - Pe) / (1 - Pe), observed: Pbar, expected: Pe, subjects: N, raters: m, categoryShares: shares };
+  return {
+    value: (Pbar - Pe) / (1 - Pe),
+    observed: Pbar,
+    expected: Pe,
+    subjects: N,
+    raters: m,
+    categoryShares: shares,
+  };
 }
 
 export interface BandAgreement {
@@ -150,7 +187,11 @@ export interface BandAgreement {
 }
 
 /** Exact and adjacent agreement of two examiners' bands, with `order` from lowest to highest band. */
-export function bandAgreement(a: readonly (string | null)[], b: readonly (string | null)[], order: readonly string[]): BandAgreement {
+export function bandAgreement(
+  a: readonly (string | null)[],
+  b: readonly (string | null)[],
+  order: readonly string[],
+): BandAgreement {
   if (a.length !== b.length) throw new RangeError('The two lists of bands differ in length.');
   let n = 0;
   let exact = 0;

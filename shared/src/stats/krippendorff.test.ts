@@ -27,15 +27,50 @@ describe("Krippendorff's alpha against Krippendorff (2011), example with missing
   });
   it('nominal text values work the same as numbers', () => {
     const text = K.map((row) => row.map((v) => (v === null ? null : `c${v}`)));
-    expect(krippendorffAlpha(text, 'nominal').value).toBeCloseTo(krippendorffAlpha(K, 'nominal').value, 12);
+    expect(krippendorffAlpha(text, 'nominal').value).toBeCloseTo(
+      krippendorffAlpha(K, 'nominal').value,
+      12,
+    );
   });
   it('perfect agreement is 1', () => {
-    expect(krippendorffAlpha([[1, 2, 3], [1, 2, 3]], 'interval').value).toBeCloseTo(1, 12);
+    expect(
+      krippendorffAlpha(
+        [
+          [1, 2, 3],
+          [1, 2, 3],
+        ],
+        'interval',
+      ).value,
+    ).toBeCloseTo(1, 12);
   });
   it('refuses text at interval level, negative ratio values and data without variation', () => {
-    expect(() => krippendorffAlpha([['a', 'b'], ['a', 'b']], 'interval')).toThrow(/must be numbers/);
-    expect(() => krippendorffAlpha([[-1, 2], [1, 2]], 'ratio')).toThrow(/negative/);
-    expect(() => krippendorffAlpha([[2, 2], [2, 2]], 'nominal')).toThrow(/undefined/);
+    expect(() =>
+      krippendorffAlpha(
+        [
+          ['a', 'b'],
+          ['a', 'b'],
+        ],
+        'interval',
+      ),
+    ).toThrow(/must be numbers/);
+    expect(() =>
+      krippendorffAlpha(
+        [
+          [-1, 2],
+          [1, 2],
+        ],
+        'ratio',
+      ),
+    ).toThrow(/negative/);
+    expect(() =>
+      krippendorffAlpha(
+        [
+          [2, 2],
+          [2, 2],
+        ],
+        'nominal',
+      ),
+    ).toThrow(/undefined/);
     expect(() => krippendorffAlpha([[1, 2]], 'nominal')).toThrow(/two observers/);
   });
 });
