@@ -24,12 +24,18 @@ export default defineConfig({
     rolldownOptions: {
       // @stavemark/shared and tonal are pure: let unused modules drop out of the bundle.
       treeshake: {
-        moduleSideEffects: (id: string) => !/[\\/](shared[\\/]dist|node_modules[\\/]@tonaljs)[\\/]/.test(id),
+        moduleSideEffects: (id: string) =>
+          !/[\\/](shared[\\/]dist|node_modules[\\/]@tonaljs)[\\/]/.test(id),
       },
       output: {
         codeSplitting: {
           // React and the router change rarely: one cached chunk that every page needs.
-          groups: [{ name: 'react', test: /[\\/]node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom)[\\/]/ }],
+          groups: [
+            {
+              name: 'react',
+              test: /[\\/]node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom)[\\/]/,
+            },
+          ],
         },
       },
     },

@@ -29,7 +29,9 @@ describe('each demo role signs in and sees its own navigation', () => {
 
   it.each(Object.keys(DEMO) as Role[])('%s', async (role) => {
     const session = await signIn(s.page, DEMO[role]);
-    const active = session.user.memberships.find((m) => m.organisationId === session.user.activeOrganisationId);
+    const active = session.user.memberships.find(
+      (m) => m.organisationId === session.user.activeOrganisationId,
+    );
     expect(active?.roles).toContain(role);
 
     expect(await mainNavLinks(s.page)).toEqual(expectedNav[role]);

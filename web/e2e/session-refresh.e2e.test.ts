@@ -20,7 +20,9 @@ describe('a signed-in page keeps working past the access token expiry', () => {
     if (envTtl !== undefined) expect(session.expiresIn).toBe(envTtl);
     const ttl = envTtl ?? session.expiresIn;
     if (ttl > 120) {
-      ctx.skip(`the server's access token lives ${ttl} s; start it with ACCESS_TOKEN_TTL_SECONDS=5 to run this journey`);
+      ctx.skip(
+        `the server's access token lives ${ttl} s; start it with ACCESS_TOKEN_TTL_SECONDS=5 to run this journey`,
+      );
     }
 
     const refreshes: number[] = [];

@@ -39,7 +39,8 @@ export async function launch(): Promise<Session> {
   // Fonts, icons and scripts all ship with the app; nothing may come from elsewhere.
   page.on('request', (request) => {
     const url = request.url();
-    if (!url.startsWith(origin) && !url.startsWith('data:') && !url.startsWith('blob:')) problems.push(`request to another host: ${url}`);
+    if (!url.startsWith(origin) && !url.startsWith('data:') && !url.startsWith('blob:'))
+      problems.push(`request to another host: ${url}`);
   });
   return {
     context,

@@ -20,8 +20,14 @@ export async function fillSignIn(page: Page, email: string, password: string): P
 }
 
 /** Signs in through the form and waits for Today; returns the session the API answered. */
-export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<AuthSession> {
-  const answer = page.waitForResponse((r) => r.url().endsWith('/api/auth/login') && r.request().method() === 'POST');
+export async function signIn(
+  page: Page,
+  email: string,
+  password = DEMO_PASSWORD,
+): Promise<AuthSession> {
+  const answer = page.waitForResponse(
+    (r) => r.url().endsWith('/api/auth/login') && r.request().method() === 'POST',
+  );
   await fillSignIn(page, email, password);
   const response = await answer;
   if (response.status() !== 200) {

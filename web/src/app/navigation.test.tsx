@@ -13,10 +13,14 @@ function todayFor(roles: Role[]) {
     timeZone: 'Europe/London',
     organisationName: 'Larkfield Music School',
     roles,
-    ...(roles.includes('admin') ? { admin: { people: 48, students: 40, classes: 4, term: null } } : {}),
+    ...(roles.includes('admin')
+      ? { admin: { people: 48, students: 40, classes: 4, term: null } }
+      : {}),
     ...(roles.includes('teacher') ? { teacher: { classes: [] } } : {}),
     ...(roles.includes('examiner') ? { examiner: { sittings: [] } } : {}),
-    ...(roles.includes('student') ? { student: { name: 'Rowan Hale', grade: 3, classes: [] } } : {}),
+    ...(roles.includes('student')
+      ? { student: { name: 'Rowan Hale', grade: 3, classes: [] } }
+      : {}),
   };
 }
 
@@ -58,7 +62,9 @@ describe('navigation per role', () => {
   it('a teacher who opens the People address is told it is not for their role', async () => {
     const api = mockApi({});
     renderApp('/people', makeSession(makeUser(['teacher'])));
-    expect(await screen.findByRole('heading', { name: 'Not open to your role' })).toBeInTheDocument();
+    expect(
+      await screen.findByRole('heading', { name: 'Not open to your role' }),
+    ).toBeInTheDocument();
     expect(api.calls('GET /api/users')).toHaveLength(0);
   });
 
@@ -73,14 +79,30 @@ describe('navigation per role', () => {
   it('a person in two organisations can switch; the roles of the new one count', async () => {
     const twoOrgs = makeUser(['teacher'], {
       memberships: [
-        { organisationId: ORG_ID, organisationName: 'Larkfield Music School', timeZone: 'Europe/London', roles: ['teacher'] },
-        { organisationId: OTHER_ORG_ID, organisationName: 'Harbour Piano Studio', timeZone: 'Europe/Dublin', roles: ['admin'] },
+        {
+          organisationId: ORG_ID,
+          organisationName: 'Larkfield Music School',
+          timeZone: 'Europe/London',
+          roles: ['teacher'],
+        },
+        {
+          organisationId: OTHER_ORG_ID,
+          organisationName: 'Harbour Piano Studio',
+          timeZone: 'Europe/Dublin',
+          roles: ['admin'],
+        },
       ],
     });
     const api = mockApi({
       'GET /api/today': (req) =>
-        json(200, req.headers.get('Authorization') === 'Bearer token-2' ? todayFor(['admin']) : todayFor(['teacher'])),
-      'POST /api/auth/switch-organisation': () => json(200, makeSession({ ...twoOrgs, activeOrganisationId: OTHER_ORG_ID }, 'token-2')),
+        json(
+          200,
+          req.headers.get('Authorization') === 'Bearer token-2'
+            ? todayFor(['admin'])
+            : todayFor(['teacher']),
+        ),
+      'POST /api/auth/switch-organisation': () =>
+        json(200, makeSession({ ...twoOrgs, activeOrganisationId: OTHER_ORG_ID }, 'token-2')),
     });
     renderApp('/', makeSession(twoOrgs));
     await screen.findByRole('heading', { name: 'Today' });
@@ -92,10 +114,14 @@ describe('navigation per role', () => {
     await user.click(switcher as HTMLElement);
     // jsdom has no layout, so PrimeReact's overlay positioning leaves the panel display:none;
     // in a browser it is visible (the e2e tests use real panels).
-    await user.click(await screen.findByRole('option', { name: 'Harbour Piano Studio', hidden: true }));
+    await user.click(
+      await screen.findByRole('option', { name: 'Harbour Piano Studio', hidden: true }),
+    );
 
     expect(await screen.findByRole('link', { name: 'People' })).toBeInTheDocument();
-    expect(api.calls('POST /api/auth/switch-organisation')[0]?.body).toEqual({ organisationId: OTHER_ORG_ID });
+    expect(api.calls('POST /api/auth/switch-organisation')[0]?.body).toEqual({
+      organisationId: OTHER_ORG_ID,
+    });
     // Today is fetched again with the new organisation's token and shows its sections.
     expect(await screen.findByRole('region', { name: 'The organisation' })).toBeInTheDocument();
     expect(api.calls('GET /api/today').at(-1)?.headers.get('Authorization')).toBe('Bearer token-2');

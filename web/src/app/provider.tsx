@@ -6,12 +6,20 @@ import { createQueryClient } from '@/lib/query-client';
 import { setNoticeListener } from '@/lib/notify';
 import { sessionStore } from '@/lib/session-store';
 
-export function AppProvider({ children, queryClient }: { children: ReactNode; queryClient?: QueryClient }) {
+export function AppProvider({
+  children,
+  queryClient,
+}: {
+  children: ReactNode;
+  queryClient?: QueryClient;
+}) {
   const [client] = useState(() => queryClient ?? createQueryClient());
   const toast = useRef<Toast>(null);
 
   useEffect(() => {
-    setNoticeListener((notice) => toast.current?.show({ ...notice, life: notice.severity === 'error' ? 8000 : 4000 }));
+    setNoticeListener((notice) =>
+      toast.current?.show({ ...notice, life: notice.severity === 'error' ? 8000 : 4000 }),
+    );
     // Cached answers belong to the person who signed out; never show them to the next one.
     const off = sessionStore.onEnd(() => client.clear());
     return () => {

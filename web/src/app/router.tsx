@@ -14,7 +14,9 @@ export const routes: RouteObject[] = [
     errorElement: <RouteError />,
     // Shown on first load while the page's chunk arrives.
     hydrateFallbackElement: <PageLoading />,
-    lazy: async () => ({ Component: (await import('@/features/auth/pages/SignInPage')).SignInPage }),
+    lazy: async () => ({
+      Component: (await import('@/features/auth/pages/SignInPage')).SignInPage,
+    }),
   },
   {
     element: (
@@ -28,13 +30,21 @@ export const routes: RouteObject[] = [
       {
         index: true,
         // Every role has a Today page, so no role check beyond being signed in.
-        lazy: async () => ({ Component: (await import('@/features/today/pages/TodayPage')).TodayPage }),
+        lazy: async () => ({
+          Component: (await import('@/features/today/pages/TodayPage')).TodayPage,
+        }),
       },
       {
         path: paths.people.path,
         lazy: async () => {
           const { PeoplePage } = await import('@/features/people/pages/PeoplePage');
-          return { element: <RequireAuth roles={paths.people.roles}><PeoplePage /></RequireAuth> };
+          return {
+            element: (
+              <RequireAuth roles={paths.people.roles}>
+                <PeoplePage />
+              </RequireAuth>
+            ),
+          };
         },
       },
       { path: '*', element: <NotFoundPage /> },

@@ -11,7 +11,10 @@ interface Props {
  */
 export function Alert({ severity, children }: Props) {
   return (
-    <div role={severity === 'error' ? 'alert' : 'status'} className={`p-message p-component p-message-${severity} sm-alert`}>
+    <div
+      role={severity === 'error' ? 'alert' : 'status'}
+      className={`p-message p-component p-message-${severity} sm-alert`}
+    >
       <div className="p-message-wrapper">
         <span className="p-message-text">{children}</span>
       </div>

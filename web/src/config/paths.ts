@@ -8,4 +8,7 @@ export const paths = {
   today: { path: '/', href: () => '/', roles: ROLES },
   signIn: { path: '/sign-in', href: () => '/sign-in', roles: ROLES },
   people: { path: '/people', href: () => '/people', roles: ['admin'] },
-} as const satisfies Record<string, { path: string; href: (...args: never[]) => string; roles: readonly Role[] }>;
+} as const satisfies Record<
+  string,
+  { path: string; href: (...args: never[]) => string; roles: readonly Role[] }
+>;

@@ -11,7 +11,9 @@ describe('apiRequest', () => {
     sessionStore.start(makeSession(user, 'token-a'));
     const api = mockApi({ 'POST /api/things': () => json(201, { ok: true }) });
 
-    await expect(apiRequest('/things', { method: 'POST', body: { name: 'x' } })).resolves.toEqual({ ok: true });
+    await expect(apiRequest('/things', { method: 'POST', body: { name: 'x' } })).resolves.toEqual({
+      ok: true,
+    });
 
     const [req] = api.requests;
     expect(req?.headers.get('Authorization')).toBe('Bearer token-a');
@@ -39,19 +41,30 @@ describe('apiRequest', () => {
     sessionStore.start(makeSession(user));
     mockApi({
       'POST /api/users': () =>
-        apiError(400, 'Some fields are not right.', { details: [{ path: 'email', message: 'Enter a valid e-mail address.' }] }),
+        apiError(400, 'Some fields are not right.', {
+          details: [{ path: 'email', message: 'Enter a valid e-mail address.' }],
+        }),
     });
     const error = await apiRequest('/users', { method: 'POST', body: {} }).catch((e: unknown) => e);
     expect(error).toBeInstanceOf(ApiError);
     const apiErr = error as ApiError;
     expect(apiErr.status).toBe(400);
     expect(apiErr.message).toBe('Some fields are not right.');
-    expect(apiErr.fieldErrors).toEqual([{ path: 'email', message: 'Enter a valid e-mail address.' }]);
+    expect(apiErr.fieldErrors).toEqual([
+      { path: 'email', message: 'Enter a valid e-mail address.' },
+    ]);
   });
 
   it('reads the Retry-After seconds of a 429', async () => {
-    mockApi({ 'POST /api/auth/login': () => apiError(429, 'Too many attempts.', {}, { 'Retry-After': '42' }) });
-    const error = (await apiRequest('/auth/login', { method: 'POST', body: {}, renewOn401: false }).catch((e: unknown) => e)) as ApiError;
+    mockApi({
+      'POST /api/auth/login': () =>
+        apiError(429, 'Too many attempts.', {}, { 'Retry-After': '42' }),
+    });
+    const error = (await apiRequest('/auth/login', {
+      method: 'POST',
+      body: {},
+      renewOn401: false,
+    }).catch((e: unknown) => e)) as ApiError;
     expect(error.status).toBe(429);
     expect(error.retryAfterSeconds).toBe(42);
   });
@@ -60,14 +73,19 @@ describe('apiRequest', () => {
     sessionStore.start(makeSession(user, 'old'));
     const api = mockApi({
       'GET /api/today': (req) =>
-        req.headers.get('Authorization') === 'Bearer new' ? json(200, { date: '2026-12-01' }) : apiError(401, 'Token expired.'),
+        req.headers.get('Authorization') === 'Bearer new'
+          ? json(200, { date: '2026-12-01' })
+          : apiError(401, 'Token expired.'),
       'POST /api/auth/refresh': () => json(200, makeSession(user, 'new')),
     });
 
     await expect(apiRequest('/today')).resolves.toEqual({ date: '2026-12-01' });
     expect(api.calls('POST /api/auth/refresh')).toHaveLength(1);
     expect(api.calls('POST /api/auth/refresh')[0]?.credentials).toBe('include');
-    expect(api.calls('GET /api/today').map((r) => r.headers.get('Authorization'))).toEqual(['Bearer old', 'Bearer new']);
+    expect(api.calls('GET /api/today').map((r) => r.headers.get('Authorization'))).toEqual([
+      'Bearer old',
+      'Bearer new',
+    ]);
     expect(sessionStore.getAccessToken()).toBe('new');
     expect(sessionStore.getState().status).toBe('signed-in');
   });
@@ -77,9 +95,18 @@ describe('apiRequest', () => {
     let releaseRefresh: () => void = () => undefined;
     const refreshGate = new Promise<void>((resolve) => (releaseRefresh = resolve));
     const api = mockApi({
-      'GET /api/a': (req) => (req.headers.get('Authorization') === 'Bearer new' ? json(200, 'a') : apiError(401, 'Expired.')),
-      'GET /api/b': (req) => (req.headers.get('Authorization') === 'Bearer new' ? json(200, 'b') : apiError(401, 'Expired.')),
-      'GET /api/c': (req) => (req.headers.get('Authorization') === 'Bearer new' ? json(200, 'c') : apiError(401, 'Expired.')),
+      'GET /api/a': (req) =>
+        req.headers.get('Authorization') === 'Bearer new'
+          ? json(200, 'a')
+          : apiError(401, 'Expired.'),
+      'GET /api/b': (req) =>
+        req.headers.get('Authorization') === 'Bearer new'
+          ? json(200, 'b')
+          : apiError(401, 'Expired.'),
+      'GET /api/c': (req) =>
+        req.headers.get('Authorization') === 'Bearer new'
+          ? json(200, 'c')
+          : apiError(401, 'Expired.'),
       'POST /api/auth/refresh': async () => {
         await refreshGate;
         return json(200, makeSession(user, 'new'));
@@ -105,7 +132,10 @@ describe('apiRequest', () => {
         await slowGate;
         return apiError(401, 'Expired.');
       },
-      'GET /api/fast': (req) => (req.headers.get('Authorization') === 'Bearer new' ? json(200, 'fast') : apiError(401, 'Expired.')),
+      'GET /api/fast': (req) =>
+        req.headers.get('Authorization') === 'Bearer new'
+          ? json(200, 'fast')
+          : apiError(401, 'Expired.'),
       'POST /api/auth/refresh': () => json(200, makeSession(user, 'new')),
     });
     const slow = apiRequest('/slow');
@@ -144,8 +174,14 @@ describe('apiRequest', () => {
   });
 
   it('does not try to refresh on a sign-in 401 (that is a wrong password)', async () => {
-    const api = mockApi({ 'POST /api/auth/login': () => apiError(401, 'The e-mail or password is not right.') });
-    const error = (await apiRequest('/auth/login', { method: 'POST', body: {}, renewOn401: false }).catch((e: unknown) => e)) as ApiError;
+    const api = mockApi({
+      'POST /api/auth/login': () => apiError(401, 'The e-mail or password is not right.'),
+    });
+    const error = (await apiRequest('/auth/login', {
+      method: 'POST',
+      body: {},
+      renewOn401: false,
+    }).catch((e: unknown) => e)) as ApiError;
     expect(error).toBeInstanceOf(ApiError);
     expect(error.message).toBe('The e-mail or password is not right.');
     expect(api.calls('POST /api/auth/refresh')).toHaveLength(0);
@@ -153,7 +189,10 @@ describe('apiRequest', () => {
 
   it('turns a non-JSON server fault into a readable ApiError', async () => {
     sessionStore.start(makeSession(user));
-    mockApi({ 'GET /api/today': () => new Response('<html>Bad gateway</html>', { status: 502, statusText: 'Bad Gateway' }) });
+    mockApi({
+      'GET /api/today': () =>
+        new Response('<html>Bad gateway</html>', { status: 502, statusText: 'Bad Gateway' }),
+    });
     const error = (await apiRequest('/today').catch((e: unknown) => e)) as ApiError;
     expect(error).toBeInstanceOf(ApiError);
     expect(error.status).toBe(502);

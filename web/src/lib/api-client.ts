@@ -88,7 +88,11 @@ async function toApiError(response: Response): Promise<ApiError> {
   );
 }
 
-async function send(path: string, options: RequestOptions, token: string | null): Promise<Response> {
+async function send(
+  path: string,
+  options: RequestOptions,
+  token: string | null,
+): Promise<Response> {
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (options.body !== undefined) headers['Content-Type'] = 'application/json';
   if (token) headers['Authorization'] = `Bearer ${token}`;
@@ -141,7 +145,8 @@ export async function apiRequest<T>(path: string, options: RequestOptions = {}):
   if (response.status === 401 && renew && tokenUsed) {
     // Another request may already have renewed the token while this one was in flight.
     const current = sessionStore.getAccessToken();
-    const fresh = current && current !== tokenUsed ? current : (await refreshSession())?.accessToken;
+    const fresh =
+      current && current !== tokenUsed ? current : (await refreshSession())?.accessToken;
     if (!fresh) {
       sessionStore.end(SESSION_ENDED_NOTICE);
       throw new SessionEndedError();

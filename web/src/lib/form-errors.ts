@@ -10,7 +10,8 @@ export function applyApiErrors<T extends FieldValues>(
   setError: UseFormSetError<T>,
   fields: readonly Path<T>[],
 ): string | null {
-  if (!(error instanceof ApiError)) return 'The server could not be reached. Nothing was saved; try again.';
+  if (!(error instanceof ApiError))
+    return 'The server could not be reached. Nothing was saved; try again.';
   const unplaced: string[] = [];
   for (const detail of error.fieldErrors) {
     const field = fields.find((f) => f === detail.path || detail.path.startsWith(`${f}.`));

@@ -11,7 +11,8 @@ declare module '@tanstack/react-query' {
 
 function describe(error: unknown): string {
   if (error instanceof ApiError) return error.message;
-  if (error instanceof TypeError) return 'The server could not be reached. Check the connection and try again.';
+  if (error instanceof TypeError)
+    return 'The server could not be reached. Check the connection and try again.';
   return 'Something went wrong. Please try again.';
 }
 

@@ -9,7 +9,14 @@ export function makeUser(roles: Role[], overrides: Partial<CurrentUser> = {}): C
     email: 'rowan.hale@school.example',
     displayName: 'Rowan Hale',
     noteNames: 'british',
-    memberships: [{ organisationId: ORG_ID, organisationName: 'Larkfield Music School', timeZone: 'Europe/London', roles }],
+    memberships: [
+      {
+        organisationId: ORG_ID,
+        organisationName: 'Larkfield Music School',
+        timeZone: 'Europe/London',
+        roles,
+      },
+    ],
     activeOrganisationId: ORG_ID,
     ...overrides,
   };

@@ -11,15 +11,32 @@ export interface RecordedRequest {
 
 type Handler = (req: RecordedRequest) => Response | Promise<Response>;
 
-export function json(status: number, body: unknown, headers: Record<string, string> = {}): Response {
+export function json(
+  status: number,
+  body: unknown,
+  headers: Record<string, string> = {},
+): Response {
   return new Response(body === undefined ? null : JSON.stringify(body), {
     status,
     headers: { 'Content-Type': 'application/json', ...headers },
   });
 }
 
-export function apiError(status: number, message: string, extra: Record<string, unknown> = {}, headers: Record<string, string> = {}) {
-  const error = { 400: 'Bad Request', 401: 'Unauthorized', 403: 'Forbidden', 404: 'Not Found', 409: 'Conflict', 429: 'Too Many Requests' }[status] ?? 'Error';
+export function apiError(
+  status: number,
+  message: string,
+  extra: Record<string, unknown> = {},
+  headers: Record<string, string> = {},
+) {
+  const error =
+    {
+      400: 'Bad Request',
+      401: 'Unauthorized',
+      403: 'Forbidden',
+      404: 'Not Found',
+      409: 'Conflict',
+      429: 'Too Many Requests',
+    }[status] ?? 'Error';
   return json(status, { statusCode: status, error, message, ...extra }, headers);
 }
 
@@ -45,7 +62,11 @@ export function mockApi(routes: Record<string, Handler>) {
     const handler = routes[`${method} ${url.pathname}`];
     if (!handler) {
       unexpected.push(`${method} ${url.pathname}`);
-      return json(599, { statusCode: 599, error: 'Test', message: `No mock for ${method} ${url.pathname}` });
+      return json(599, {
+        statusCode: 599,
+        error: 'Test',
+        message: `No mock for ${method} ${url.pathname}`,
+      });
     }
     return handler(req);
   });

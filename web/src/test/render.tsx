@@ -12,7 +12,9 @@ export function renderApp(path: string, session: AuthSession | null) {
   else sessionStore.end();
   const queryClient = createQueryClient();
   // Tests want the first answer, not a retry after a fault.
-  queryClient.setDefaultOptions({ queries: { ...queryClient.getDefaultOptions().queries, retry: false } });
+  queryClient.setDefaultOptions({
+    queries: { ...queryClient.getDefaultOptions().queries, retry: false },
+  });
   const router = createMemoryRouter(routes, { initialEntries: [path] });
   const view = render(
     <AppProvider queryClient={queryClient}>

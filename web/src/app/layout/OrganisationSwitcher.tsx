@@ -10,7 +10,10 @@ export function OrganisationSwitcher({ user }: { user: CurrentUser }) {
   const id = useId();
   const navigate = useNavigate();
   const switchOrganisation = useSwitchOrganisation();
-  const options = user.memberships.map((m) => ({ label: m.organisationName, value: m.organisationId }));
+  const options = user.memberships.map((m) => ({
+    label: m.organisationName,
+    value: m.organisationId,
+  }));
 
   return (
     <div className="sm-org-switcher">

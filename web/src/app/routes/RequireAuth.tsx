@@ -12,7 +12,13 @@ export function RequireAuth({ children, roles }: { children: ReactNode; roles?: 
   const location = useLocation();
   if (session.status === 'restoring') return <PageLoading label="Opening Stavemark…" />;
   if (session.status === 'signed-out') {
-    return <Navigate to={paths.signIn.href()} replace state={{ from: { pathname: location.pathname, search: location.search } }} />;
+    return (
+      <Navigate
+        to={paths.signIn.href()}
+        replace
+        state={{ from: { pathname: location.pathname, search: location.search } }}
+      />
+    );
   }
   if (roles && !hasAnyRole(session.user, roles)) return <ForbiddenPage />;
   return <>{children}</>;

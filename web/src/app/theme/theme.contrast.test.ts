@@ -30,9 +30,12 @@ describe('theme colours (blue on paper)', () => {
     expect(contrastRatio(colours.onCopper, colours.copper)).toBeCloseTo(6.8, 1);
   });
 
-  it.each(textPairs)('text pair "$use" ($text on $background) reaches 4.5:1', ({ text, background }) => {
-    expect(contrastRatio(colours[text], colours[background])).toBeGreaterThanOrEqual(AA_TEXT);
-  });
+  it.each(textPairs)(
+    'text pair "$use" ($text on $background) reaches 4.5:1',
+    ({ text, background }) => {
+      expect(contrastRatio(colours[text], colours[background])).toBeGreaterThanOrEqual(AA_TEXT);
+    },
+  );
 
   it.each(uiPairs)('UI pair "$use" reaches 3:1', ({ part, background }) => {
     expect(contrastRatio(colours[part], colours[background])).toBeGreaterThanOrEqual(AA_NON_TEXT);
@@ -40,7 +43,11 @@ describe('theme colours (blue on paper)', () => {
 
   it('every CSS variable the stylesheets use is defined from the tokens', () => {
     const defined = new Set(Object.keys(cssVariables()));
-    const used = new Set(sheets.flatMap((css) => [...css.matchAll(/var\((--sm-[a-z-]+)\)/g)].map((m) => m[1] as string)));
+    const used = new Set(
+      sheets.flatMap((css) =>
+        [...css.matchAll(/var\((--sm-[a-z-]+)\)/g)].map((m) => m[1] as string),
+      ),
+    );
     expect(used.size).toBeGreaterThan(10);
     for (const name of used) expect(defined, `${name} is used but not a token`).toContain(name);
   });

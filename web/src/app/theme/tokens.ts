@@ -42,27 +42,28 @@ export const fonts = {
 } as const;
 
 /** Every text-on-background pair the theme uses (theme.css must not combine others). */
-export const textPairs: ReadonlyArray<{ use: string; text: ColourToken; background: ColourToken }> = [
-  { use: 'body text and headings on paper', text: 'ink', background: 'paper' },
-  { use: 'body text in tables, cards and dialogs', text: 'ink', background: 'sheet' },
-  { use: 'text on alternate and hovered rows', text: 'ink', background: 'paperShade' },
-  { use: 'secondary text on paper', text: 'inkMuted', background: 'paper' },
-  { use: 'secondary text on sheets', text: 'inkMuted', background: 'sheet' },
-  { use: 'secondary text on shaded rows', text: 'inkMuted', background: 'paperShade' },
-  { use: 'navigation bar text', text: 'onInk', background: 'ink' },
-  { use: 'navigation bar, other pages', text: 'onInkMuted', background: 'ink' },
-  { use: 'current navigation item', text: 'onInk', background: 'inkRaised' },
-  { use: 'primary button', text: 'onCopper', background: 'copper' },
-  { use: 'primary button, hovered', text: 'onCopper', background: 'copperHover' },
-  { use: 'copper text (outlined primary button) on paper', text: 'copper', background: 'paper' },
-  { use: 'copper text on sheets', text: 'copper', background: 'sheet' },
-  { use: 'links and focus outline text on sheets', text: 'focus', background: 'sheet' },
-  { use: 'success status', text: 'successText', background: 'successTint' },
-  { use: 'warning status', text: 'warningText', background: 'warningTint' },
-  { use: 'error status', text: 'dangerText', background: 'dangerTint' },
-  { use: 'field error text on sheets', text: 'dangerText', background: 'sheet' },
-  { use: 'field error text on paper', text: 'dangerText', background: 'paper' },
-];
+export const textPairs: ReadonlyArray<{ use: string; text: ColourToken; background: ColourToken }> =
+  [
+    { use: 'body text and headings on paper', text: 'ink', background: 'paper' },
+    { use: 'body text in tables, cards and dialogs', text: 'ink', background: 'sheet' },
+    { use: 'text on alternate and hovered rows', text: 'ink', background: 'paperShade' },
+    { use: 'secondary text on paper', text: 'inkMuted', background: 'paper' },
+    { use: 'secondary text on sheets', text: 'inkMuted', background: 'sheet' },
+    { use: 'secondary text on shaded rows', text: 'inkMuted', background: 'paperShade' },
+    { use: 'navigation bar text', text: 'onInk', background: 'ink' },
+    { use: 'navigation bar, other pages', text: 'onInkMuted', background: 'ink' },
+    { use: 'current navigation item', text: 'onInk', background: 'inkRaised' },
+    { use: 'primary button', text: 'onCopper', background: 'copper' },
+    { use: 'primary button, hovered', text: 'onCopper', background: 'copperHover' },
+    { use: 'copper text (outlined primary button) on paper', text: 'copper', background: 'paper' },
+    { use: 'copper text on sheets', text: 'copper', background: 'sheet' },
+    { use: 'links and focus outline text on sheets', text: 'focus', background: 'sheet' },
+    { use: 'success status', text: 'successText', background: 'successTint' },
+    { use: 'warning status', text: 'warningText', background: 'warningTint' },
+    { use: 'error status', text: 'dangerText', background: 'dangerTint' },
+    { use: 'field error text on sheets', text: 'dangerText', background: 'sheet' },
+    { use: 'field error text on paper', text: 'dangerText', background: 'paper' },
+  ];
 
 /** Non-text pairs that must reach 3:1 (WCAG 2.1 SC 1.4.11). */
 export const uiPairs: ReadonlyArray<{ use: string; part: ColourToken; background: ColourToken }> = [

@@ -45,7 +45,8 @@ export function SignInForm() {
   const onSubmit = handleSubmit((values) => {
     login.mutate(values, {
       onError: (error) => {
-        if (error instanceof ApiError && error.status === 429) startWait(error.retryAfterSeconds ?? 60);
+        if (error instanceof ApiError && error.status === 429)
+          startWait(error.retryAfterSeconds ?? 60);
       },
     });
   });
@@ -64,9 +65,7 @@ export function SignInForm() {
   return (
     <form onSubmit={onSubmit} noValidate aria-labelledby={`${id}-title`} className="sm-form">
       <h1 id={`${id}-title`}>Sign in</h1>
-      {alert && (
-        <Alert severity="error">{alert}</Alert>
-      )}
+      {alert && <Alert severity="error">{alert}</Alert>}
       <div className="sm-field">
         <label htmlFor={`${id}-email`}>E-mail</label>
         <InputText
@@ -95,7 +94,13 @@ export function SignInForm() {
       </div>
       <Button
         type="submit"
-        label={login.isPending ? 'Signing in…' : waitSeconds > 0 ? `Try again in ${waitText(waitSeconds)}` : 'Sign in'}
+        label={
+          login.isPending
+            ? 'Signing in…'
+            : waitSeconds > 0
+              ? `Try again in ${waitText(waitSeconds)}`
+              : 'Sign in'
+        }
         disabled={login.isPending || waitSeconds > 0}
         className="sm-form-submit"
       />

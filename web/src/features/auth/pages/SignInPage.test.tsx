@@ -6,7 +6,13 @@ import { apiError, json, mockApi } from '@/test/fetch-mock';
 import { makeSession, makeUser } from '@/test/factories';
 import { sessionStore } from '@/lib/session-store';
 
-const today = { date: '2026-12-01', timeZone: 'Europe/London', organisationName: 'Larkfield Music School', roles: ['teacher'], teacher: { classes: [] } };
+const today = {
+  date: '2026-12-01',
+  timeZone: 'Europe/London',
+  organisationName: 'Larkfield Music School',
+  roles: ['teacher'],
+  teacher: { classes: [] },
+};
 
 async function fillAndSubmit(email: string, password: string) {
   const user = userEvent.setup();
@@ -25,7 +31,9 @@ describe('sign-in page', () => {
     expect(await screen.findByText('Enter a valid e-mail address.')).toBeInTheDocument();
     expect(screen.getByText('Enter your password.')).toBeInTheDocument();
     expect(screen.getByLabelText('E-mail')).toHaveAttribute('aria-invalid', 'true');
-    expect(screen.getByLabelText('E-mail')).toHaveAccessibleDescription('Enter a valid e-mail address.');
+    expect(screen.getByLabelText('E-mail')).toHaveAccessibleDescription(
+      'Enter a valid e-mail address.',
+    );
 
     await fillAndSubmit('not-an-address', 'x');
     expect(await screen.findByText('Enter a valid e-mail address.')).toBeInTheDocument();
@@ -33,15 +41,22 @@ describe('sign-in page', () => {
   });
 
   it('shows the API message for a wrong password in an alert', async () => {
-    const api = mockApi({ 'POST /api/auth/login': () => apiError(401, 'The e-mail or password is not right.') });
+    const api = mockApi({
+      'POST /api/auth/login': () => apiError(401, 'The e-mail or password is not right.'),
+    });
     renderApp('/sign-in', null);
     await screen.findByRole('heading', { name: 'Sign in' });
 
     await fillAndSubmit('Teacher@Demo.Example ', 'wrong-password');
 
-    expect(await screen.findByRole('alert')).toHaveTextContent('The e-mail or password is not right.');
+    expect(await screen.findByRole('alert')).toHaveTextContent(
+      'The e-mail or password is not right.',
+    );
     // The shared schema trims and lower-cases the e-mail before it is sent.
-    expect(api.calls('POST /api/auth/login')[0]?.body).toEqual({ email: 'teacher@demo.example', password: 'wrong-password' });
+    expect(api.calls('POST /api/auth/login')[0]?.body).toEqual({
+      email: 'teacher@demo.example',
+      password: 'wrong-password',
+    });
     expect(api.calls('POST /api/auth/refresh')).toHaveLength(0);
     expect(screen.getByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
   });
@@ -49,24 +64,41 @@ describe('sign-in page', () => {
   it('shows how long to wait when sign-in is rate-limited, and holds the button until then', async () => {
     mockApi({
       'POST /api/auth/login': () =>
-        apiError(429, 'Too many sign-in attempts. Please wait 30 seconds and try again.', {}, { 'Retry-After': '30' }),
+        apiError(
+          429,
+          'Too many sign-in attempts. Please wait 30 seconds and try again.',
+          {},
+          { 'Retry-After': '30' },
+        ),
     });
     renderApp('/sign-in', null);
     await screen.findByRole('heading', { name: 'Sign in' });
 
     await fillAndSubmit('teacher@demo.example', 'stavemark-demo');
 
-    expect(await screen.findByRole('alert')).toHaveTextContent('Too many sign-in attempts. Please wait 30 seconds and try again.');
+    expect(await screen.findByRole('alert')).toHaveTextContent(
+      'Too many sign-in attempts. Please wait 30 seconds and try again.',
+    );
     // The wait comes from Retry-After and counts down on the button.
     expect(screen.getByRole('button', { name: /^Try again in (30|29) seconds$/ })).toBeDisabled();
   });
 
   it('lets the person try again once the wait is over', async () => {
-    mockApi({ 'POST /api/auth/login': () => apiError(429, 'Too many sign-in attempts. Please wait 2 seconds and try again.', {}, { 'Retry-After': '2' }) });
+    mockApi({
+      'POST /api/auth/login': () =>
+        apiError(
+          429,
+          'Too many sign-in attempts. Please wait 2 seconds and try again.',
+          {},
+          { 'Retry-After': '2' },
+        ),
+    });
     renderApp('/sign-in', null);
     await screen.findByRole('heading', { name: 'Sign in' });
     await fillAndSubmit('teacher@demo.example', 'stavemark-demo');
-    expect(await screen.findByRole('button', { name: /^Try again in [12] seconds?$/ })).toBeDisabled();
+    expect(
+      await screen.findByRole('button', { name: /^Try again in [12] seconds?$/ }),
+    ).toBeDisabled();
     expect(await screen.findByRole('button', { name: 'Sign in' }, { timeout: 4000 })).toBeEnabled();
     expect(screen.getByRole('alert')).toHaveTextContent('You can try to sign in again now.');
   });
@@ -89,7 +121,10 @@ describe('sign-in page', () => {
     const admin = makeUser(['admin']);
     let signedInAgain = false;
     mockApi({
-      'GET /api/users': () => (signedInAgain ? json(200, { items: [], total: 0, page: 1, pageSize: 20 }) : apiError(401, 'Expired.')),
+      'GET /api/users': () =>
+        signedInAgain
+          ? json(200, { items: [], total: 0, page: 1, pageSize: 20 })
+          : apiError(401, 'Expired.'),
       'POST /api/auth/refresh': () => apiError(401, 'No session.'),
       'POST /api/auth/login': () => {
         signedInAgain = true;
@@ -106,7 +141,9 @@ describe('sign-in page', () => {
     await fillAndSubmit('admin@demo.example', 'stavemark-demo');
     expect(await screen.findByRole('heading', { name: 'People' })).toBeInTheDocument();
     expect(router.state.location.pathname).toBe('/people');
-    expect(screen.queryByText('Your session has ended; please sign in again.')).not.toBeInTheDocument();
+    expect(
+      screen.queryByText('Your session has ended; please sign in again.'),
+    ).not.toBeInTheDocument();
   });
 
   it('a page behind sign-in sends a signed-out visitor to sign in', async () => {

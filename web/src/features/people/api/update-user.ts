@@ -3,8 +3,17 @@ import type { UpdateUserInput, UserRow } from '@stavemark/shared';
 import { apiRequest } from '@/lib/api-client';
 import { usersKey } from './get-users';
 
-export function updateUser({ id, changes }: { id: string; changes: UpdateUserInput }): Promise<UserRow> {
-  return apiRequest<UserRow>(`/users/${encodeURIComponent(id)}`, { method: 'PATCH', body: changes });
+export function updateUser({
+  id,
+  changes,
+}: {
+  id: string;
+  changes: UpdateUserInput;
+}): Promise<UserRow> {
+  return apiRequest<UserRow>(`/users/${encodeURIComponent(id)}`, {
+    method: 'PATCH',
+    body: changes,
+  });
 }
 
 export function useUpdateUser(options: { inlineErrors?: boolean } = {}) {

@@ -54,7 +54,8 @@ export function CreatePersonDialog({ visible, onHide, onCreated }: Props) {
       },
       onError: (error) => {
         // 409: the e-mail already belongs to someone here; say so beside the e-mail.
-        if (error instanceof ApiError && error.status === 409) setError('email', { type: 'server', message: error.message });
+        if (error instanceof ApiError && error.status === 409)
+          setError('email', { type: 'server', message: error.message });
         else setFormError(applyApiErrors(error, setError, FIELDS));
       },
     });
@@ -63,30 +64,61 @@ export function CreatePersonDialog({ visible, onHide, onCreated }: Props) {
   const footer = (
     <div className="sm-form-actions">
       <Button type="button" label="Cancel" severity="secondary" onClick={close} />
-      <Button type="submit" form={`${id}-form`} label={createUser.isPending ? 'Adding…' : 'Add person'} disabled={createUser.isPending} />
+      <Button
+        type="submit"
+        form={`${id}-form`}
+        label={createUser.isPending ? 'Adding…' : 'Add person'}
+        disabled={createUser.isPending}
+      />
     </div>
   );
 
   return (
-    <Dialog header="Add a person" visible={visible} onHide={close} footer={footer} style={{ width: '30rem' }} breakpoints={{ '640px': '95vw' }}>
+    <Dialog
+      header="Add a person"
+      visible={visible}
+      onHide={close}
+      footer={footer}
+      style={{ width: '30rem' }}
+      breakpoints={{ '640px': '95vw' }}
+    >
       <form id={`${id}-form`} onSubmit={onSubmit} noValidate className="sm-form">
-        {formError && (
-          <Alert severity="error">{formError}</Alert>
-        )}
+        {formError && <Alert severity="error">{formError}</Alert>}
         <div className="sm-field">
           <label htmlFor={`${id}-name`}>Name</label>
-          <InputText id={`${id}-name`} autoComplete="off" invalid={!!errors.displayName} aria-invalid={!!errors.displayName} aria-describedby={errors.displayName ? `${id}-name-error` : undefined} {...register('displayName')} />
+          <InputText
+            id={`${id}-name`}
+            autoComplete="off"
+            invalid={!!errors.displayName}
+            aria-invalid={!!errors.displayName}
+            aria-describedby={errors.displayName ? `${id}-name-error` : undefined}
+            {...register('displayName')}
+          />
           <FieldError id={`${id}-name-error`} message={errors.displayName?.message} />
         </div>
         <div className="sm-field">
           <label htmlFor={`${id}-email`}>E-mail</label>
-          <InputText id={`${id}-email`} type="email" autoComplete="off" invalid={!!errors.email} aria-invalid={!!errors.email} aria-describedby={errors.email ? `${id}-email-error` : undefined} {...register('email')} />
+          <InputText
+            id={`${id}-email`}
+            type="email"
+            autoComplete="off"
+            invalid={!!errors.email}
+            aria-invalid={!!errors.email}
+            aria-describedby={errors.email ? `${id}-email-error` : undefined}
+            {...register('email')}
+          />
           <FieldError id={`${id}-email-error`} message={errors.email?.message} />
         </div>
         <Controller
           control={control}
           name="roles"
-          render={({ field, fieldState }) => <RolesField value={field.value} onChange={field.onChange} error={fieldState.error?.message} />}
+          render={({ field, fieldState }) => (
+            <RolesField
+              value={field.value}
+              onChange={field.onChange}
+              error={fieldState.error?.message}
+            />
+          )}
         />
         <div className="sm-field">
           <label htmlFor={`${id}-password`}>First password (optional)</label>
@@ -100,7 +132,8 @@ export function CreatePersonDialog({ visible, onHide, onCreated }: Props) {
             {...register('password', { setValueAs: (v: string) => (v === '' ? undefined : v) })}
           />
           <small id={`${id}-password-hint`} className="sm-field-hint">
-            At least {PASSWORD_MIN_LENGTH} characters. Leave it empty to send an e-mail invitation to choose one.
+            At least {PASSWORD_MIN_LENGTH} characters. Leave it empty to send an e-mail invitation
+            to choose one.
           </small>
           <FieldError id={`${id}-password-error`} message={errors.password?.message} />
         </div>

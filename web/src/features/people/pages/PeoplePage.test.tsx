@@ -8,17 +8,38 @@ import { makeSession, makeUser, makeUserRow } from '@/test/factories';
 
 const me = makeUser(['admin']);
 const people: UserRow[] = [
-  makeUserRow({ id: me.id, displayName: 'Rowan Hale', email: 'rowan.hale@school.example', roles: ['admin'] }),
-  makeUserRow({ displayName: 'Ada Quill', email: 'ada.quill@school.example', roles: ['teacher', 'examiner'] }),
-  makeUserRow({ displayName: 'Mira Osei', email: 'mira.osei@school.example', roles: ['student'], active: false }),
+  makeUserRow({
+    id: me.id,
+    displayName: 'Rowan Hale',
+    email: 'rowan.hale@school.example',
+    roles: ['admin'],
+  }),
+  makeUserRow({
+    displayName: 'Ada Quill',
+    email: 'ada.quill@school.example',
+    roles: ['teacher', 'examiner'],
+  }),
+  makeUserRow({
+    displayName: 'Mira Osei',
+    email: 'mira.osei@school.example',
+    roles: ['student'],
+    active: false,
+  }),
 ];
 
 function usersApi(extra: Parameters<typeof mockApi>[0] = {}) {
   return mockApi({
     'GET /api/users': (req: RecordedRequest) => {
       const search = req.query.get('search')?.toLowerCase();
-      const items = search ? people.filter((p) => p.displayName.toLowerCase().includes(search)) : people;
-      return json(200, { items, total: search ? items.length : 57, page: Number(req.query.get('page')), pageSize: Number(req.query.get('pageSize')) });
+      const items = search
+        ? people.filter((p) => p.displayName.toLowerCase().includes(search))
+        : people;
+      return json(200, {
+        items,
+        total: search ? items.length : 57,
+        page: Number(req.query.get('page')),
+        pageSize: Number(req.query.get('pageSize')),
+      });
     },
     ...extra,
   });
@@ -36,7 +57,12 @@ describe('People page', () => {
 
     expect(await screen.findByRole('cell', { name: 'Ada Quill' })).toBeInTheDocument();
     const first = api.calls('GET /api/users')[0];
-    expect(Object.fromEntries(first?.query ?? [])).toEqual({ page: '1', pageSize: '20', sort: 'displayName', order: 'asc' });
+    expect(Object.fromEntries(first?.query ?? [])).toEqual({
+      page: '1',
+      pageSize: '20',
+      sort: 'displayName',
+      order: 'asc',
+    });
 
     const rows = bodyRows();
     expect(rows).toHaveLength(3);
@@ -56,7 +82,10 @@ describe('People page', () => {
     await waitFor(() => expect(bodyRows()).toHaveLength(1));
     expect(bodyRows()[0]).toHaveTextContent('Mira Osei');
     // Debounced: one request for the settled text, not one per key.
-    const searches = api.calls('GET /api/users').map((r) => r.query.get('search')).filter(Boolean);
+    const searches = api
+      .calls('GET /api/users')
+      .map((r) => r.query.get('search'))
+      .filter(Boolean);
     expect(searches).toEqual(['mira']);
   });
 
@@ -67,11 +96,15 @@ describe('People page', () => {
     const user = userEvent.setup();
 
     await user.click(screen.getByRole('columnheader', { name: /E-mail/ }));
-    await waitFor(() => expect(api.calls('GET /api/users').at(-1)?.query.get('sort')).toBe('email'));
+    await waitFor(() =>
+      expect(api.calls('GET /api/users').at(-1)?.query.get('sort')).toBe('email'),
+    );
     expect(api.calls('GET /api/users').at(-1)?.query.get('order')).toBe('asc');
 
     await user.click(screen.getByRole('columnheader', { name: /E-mail/ }));
-    await waitFor(() => expect(api.calls('GET /api/users').at(-1)?.query.get('order')).toBe('desc'));
+    await waitFor(() =>
+      expect(api.calls('GET /api/users').at(-1)?.query.get('order')).toBe('desc'),
+    );
   });
 
   it('moves to the next page on the server', async () => {
@@ -87,7 +120,8 @@ describe('People page', () => {
     const api = usersApi({
       'POST /api/users': (req) => {
         attempts += 1;
-        if (attempts === 1) return apiError(409, 'Someone in this organisation already has that e-mail.');
+        if (attempts === 1)
+          return apiError(409, 'Someone in this organisation already has that e-mail.');
         return json(201, makeUserRow(req.body as Partial<UserRow>));
       },
     });
@@ -112,22 +146,33 @@ describe('People page', () => {
 
     await user.click(within(dialog).getByRole('button', { name: 'Add person' }));
     await waitFor(() =>
-      expect(within(dialog).getByLabelText('E-mail')).toHaveAccessibleDescription('Someone in this organisation already has that e-mail.'),
+      expect(within(dialog).getByLabelText('E-mail')).toHaveAccessibleDescription(
+        'Someone in this organisation already has that e-mail.',
+      ),
     );
     expect(within(dialog).queryByRole('alert')).not.toBeInTheDocument();
-    expect(api.calls('POST /api/users')[0]?.body).toEqual({ email: 'tom.reyes@school.example', displayName: 'Tom Reyes', roles: ['teacher'] });
+    expect(api.calls('POST /api/users')[0]?.body).toEqual({
+      email: 'tom.reyes@school.example',
+      displayName: 'Tom Reyes',
+      roles: ['teacher'],
+    });
 
     const listCallsBefore = api.calls('GET /api/users').length;
     await user.click(within(dialog).getByRole('button', { name: 'Add person' }));
-    await waitFor(() => expect(screen.queryByRole('dialog', { name: 'Add a person' })).not.toBeInTheDocument());
-    await waitFor(() => expect(api.calls('GET /api/users').length).toBeGreaterThan(listCallsBefore));
+    await waitFor(() =>
+      expect(screen.queryByRole('dialog', { name: 'Add a person' })).not.toBeInTheDocument(),
+    );
+    await waitFor(() =>
+      expect(api.calls('GET /api/users').length).toBeGreaterThan(listCallsBefore),
+    );
     expect(await screen.findByText('Tom Reyes was added.')).toBeInTheDocument();
   });
 
   it('edits roles, sending only what changed', async () => {
     const patch = mockApi({
       'GET /api/users': () => json(200, { items: people, total: 3, page: 1, pageSize: 20 }),
-      [`PATCH /api/users/${people[1]?.id}`]: (req) => json(200, { ...people[1], ...(req.body as object) }),
+      [`PATCH /api/users/${people[1]?.id}`]: (req) =>
+        json(200, { ...people[1], ...(req.body as object) }),
     });
     renderApp('/people', makeSession(me));
     await screen.findByRole('cell', { name: 'Ada Quill' });
@@ -139,13 +184,17 @@ describe('People page', () => {
     await user.click(within(dialog).getByRole('button', { name: 'Save changes' }));
 
     await waitFor(() => expect(patch.calls(`PATCH /api/users/${people[1]?.id}`)).toHaveLength(1));
-    expect(patch.calls(`PATCH /api/users/${people[1]?.id}`)[0]?.body).toEqual({ roles: ['teacher'] });
+    expect(patch.calls(`PATCH /api/users/${people[1]?.id}`)[0]?.body).toEqual({
+      roles: ['teacher'],
+    });
   });
 
   it('deactivates after a confirmation, and never offers it for your own sign-in', async () => {
     const api = usersApi({
-      [`PATCH /api/users/${people[1]?.id}`]: (req) => json(200, { ...people[1], ...(req.body as object) }),
-      [`PATCH /api/users/${people[2]?.id}`]: (req) => json(200, { ...people[2], ...(req.body as object) }),
+      [`PATCH /api/users/${people[1]?.id}`]: (req) =>
+        json(200, { ...people[1], ...(req.body as object) }),
+      [`PATCH /api/users/${people[2]?.id}`]: (req) =>
+        json(200, { ...people[2], ...(req.body as object) }),
     });
     renderApp('/people', makeSession(me));
     await screen.findByRole('cell', { name: 'Ada Quill' });
@@ -160,6 +209,8 @@ describe('People page', () => {
     expect(api.calls(`PATCH /api/users/${people[1]?.id}`)[0]?.body).toEqual({ active: false });
 
     await user.click(screen.getByRole('button', { name: 'Reactivate Mira Osei' }));
-    await waitFor(() => expect(api.calls(`PATCH /api/users/${people[2]?.id}`)[0]?.body).toEqual({ active: true }));
+    await waitFor(() =>
+      expect(api.calls(`PATCH /api/users/${people[2]?.id}`)[0]?.body).toEqual({ active: true }),
+    );
   });
 });

@@ -21,7 +21,10 @@ type SortField = UsersQuery['sort'];
 type StatusFilter = 'all' | 'active' | 'inactive';
 
 const PAGE_SIZES = [20, 50, 100];
-const roleOptions = [{ label: 'All roles', value: null }, ...ROLES.map((r) => ({ label: roleLabel(r), value: r }))];
+const roleOptions = [
+  { label: 'All roles', value: null },
+  ...ROLES.map((r) => ({ label: roleLabel(r), value: r })),
+];
 const statusOptions: { label: string; value: StatusFilter }[] = [
   { label: 'Everyone', value: 'all' },
   { label: 'Active', value: 'active' },
@@ -84,14 +87,20 @@ export function PeoplePage() {
       { id: person.id, changes: { active } },
       {
         onSuccess: () =>
-          notify({ severity: 'success', summary: active ? `${person.displayName} can sign in again.` : `${person.displayName} is deactivated.` }),
+          notify({
+            severity: 'success',
+            summary: active
+              ? `${person.displayName} can sign in again.`
+              : `${person.displayName} is deactivated.`,
+          }),
       },
     );
 
   const askDeactivate = (person: UserRow) =>
     confirmDialog({
       header: `Deactivate ${person.displayName}?`,
-      message: 'They are signed out at once and cannot sign in until reactivated. Their records stay.',
+      message:
+        'They are signed out at once and cannot sign in until reactivated. Their records stay.',
       acceptLabel: 'Deactivate',
       rejectLabel: 'Keep active',
       acceptClassName: 'p-button-danger',
@@ -108,12 +117,23 @@ export function PeoplePage() {
     </span>
   );
   const statusBody = (row: UserRow) =>
-    row.active ? <Tag severity="success" value="Active" /> : <Tag severity="warning" value="Deactivated" />;
+    row.active ? (
+      <Tag severity="success" value="Active" />
+    ) : (
+      <Tag severity="warning" value="Deactivated" />
+    );
   const actionsBody = (row: UserRow) => {
     const self = row.id === me.id;
     return (
       <span className="sm-row-actions">
-        <Button type="button" size="small" severity="secondary" label="Edit" aria-label={`Edit ${row.displayName}`} onClick={() => setEditing(row)} />
+        <Button
+          type="button"
+          size="small"
+          severity="secondary"
+          label="Edit"
+          aria-label={`Edit ${row.displayName}`}
+          onClick={() => setEditing(row)}
+        />
         {row.active ? (
           <Button
             type="button"
@@ -147,23 +167,46 @@ export function PeoplePage() {
       <div className="sm-page-header">
         <div>
           <h1 id="people-title">People</h1>
-          <p className="sm-page-subtitle">Everyone with a sign-in at {activeMembership(me)?.organisationName}, and their roles.</p>
+          <p className="sm-page-subtitle">
+            Everyone with a sign-in at {activeMembership(me)?.organisationName}, and their roles.
+          </p>
         </div>
-        <Button type="button" label="Add a person" icon="pi pi-plus" onClick={() => setCreating(true)} />
+        <Button
+          type="button"
+          label="Add a person"
+          icon="pi pi-plus"
+          onClick={() => setCreating(true)}
+        />
       </div>
 
       <div className="sm-toolbar" role="search">
         <div className="sm-field sm-field-grow">
           <label htmlFor={`${id}-search`}>Search</label>
-          <InputText id={`${id}-search`} type="search" placeholder="Name or e-mail" value={search} onChange={(e) => setSearch(e.target.value)} />
+          <InputText
+            id={`${id}-search`}
+            type="search"
+            placeholder="Name or e-mail"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+          />
         </div>
         <div className="sm-field">
           <label htmlFor={`${id}-role`}>Role</label>
-          <Dropdown inputId={`${id}-role`} value={role} options={roleOptions} onChange={(e) => setRole(e.value as Role | null)} />
+          <Dropdown
+            inputId={`${id}-role`}
+            value={role}
+            options={roleOptions}
+            onChange={(e) => setRole(e.value as Role | null)}
+          />
         </div>
         <div className="sm-field">
           <label htmlFor={`${id}-status`}>Status</label>
-          <Dropdown inputId={`${id}-status`} value={status} options={statusOptions} onChange={(e) => setStatus(e.value as StatusFilter)} />
+          <Dropdown
+            inputId={`${id}-status`}
+            value={status}
+            options={statusOptions}
+            onChange={(e) => setStatus(e.value as StatusFilter)}
+          />
         </div>
       </div>
 
@@ -194,15 +237,26 @@ export function PeoplePage() {
           <Column field="email" header="E-mail" sortable />
           <Column header="Roles" body={rolesBody} />
           <Column header="Status" body={statusBody} />
-          <Column field="createdAt" header="Added" sortable body={(row: UserRow) => formatDateInZone(row.createdAt, timeZone)} />
-          <Column header={<span className="sm-visually-hidden">Actions</span>} body={actionsBody} style={{ width: '13rem' }} />
+          <Column
+            field="createdAt"
+            header="Added"
+            sortable
+            body={(row: UserRow) => formatDateInZone(row.createdAt, timeZone)}
+          />
+          <Column
+            header={<span className="sm-visually-hidden">Actions</span>}
+            body={actionsBody}
+            style={{ width: '13rem' }}
+          />
         </DataTable>
       </div>
 
       <CreatePersonDialog
         visible={creating}
         onHide={() => setCreating(false)}
-        onCreated={(row) => notify({ severity: 'success', summary: `${row.displayName} was added.` })}
+        onCreated={(row) =>
+          notify({ severity: 'success', summary: `${row.displayName} was added.` })
+        }
       />
       <EditPersonDialog person={editing} onHide={() => setEditing(null)} />
       <ConfirmDialog />

@@ -16,7 +16,13 @@ export interface TodayView {
     term: { name: string; startsOn: string; endsOn: string } | null;
   };
   teacher?: {
-    classes: { id: string; name: string; code: string; grade: number | null; studentCount: number }[];
+    classes: {
+      id: string;
+      name: string;
+      code: string;
+      grade: number | null;
+      studentCount: number;
+    }[];
   };
   examiner?: {
     /** Empty until sittings exist (a later issue fills in their shape). */

@@ -24,7 +24,8 @@ export function AdminToday({ data }: { data: NonNullable<TodayView['admin']> }) 
       <p>
         {data.term ? (
           <>
-            Current term: <strong>{data.term.name}</strong>, {formatPlainDate(data.term.startsOn, 'short')} to{' '}
+            Current term: <strong>{data.term.name}</strong>,{' '}
+            {formatPlainDate(data.term.startsOn, 'short')} to{' '}
             {formatPlainDate(data.term.endsOn, 'short')}.
           </>
         ) : (

@@ -30,8 +30,14 @@ describe('Today page', () => {
 
     const classes = screen.getByRole('region', { name: 'Your classes' });
     const rows = within(classes).getAllByRole('row');
-    expect(rows.map((r) => r.textContent)).toEqual(['ClassCodeGradeStudents', 'Tuesday juniorsTUE-J29', 'Open studioOPENMixed4']);
-    expect(screen.getByRole('region', { name: 'Your sittings today' })).toHaveTextContent('No sittings are assigned to you today.');
+    expect(rows.map((r) => r.textContent)).toEqual([
+      'ClassCodeGradeStudents',
+      'Tuesday juniorsTUE-J29',
+      'Open studioOPENMixed4',
+    ]);
+    expect(screen.getByRole('region', { name: 'Your sittings today' })).toHaveTextContent(
+      'No sittings are assigned to you today.',
+    );
     expect(screen.queryByRole('region', { name: 'The organisation' })).not.toBeInTheDocument();
     expect(screen.queryByRole('region', { name: 'Your lessons' })).not.toBeInTheDocument();
   });
@@ -44,14 +50,22 @@ describe('Today page', () => {
           timeZone: 'Europe/London',
           organisationName: 'Larkfield Music School',
           roles: ['admin'],
-          admin: { people: 48, students: 40, classes: 4, term: { name: 'Autumn term', startsOn: '2026-09-02', endsOn: '2026-12-18' } },
+          admin: {
+            people: 48,
+            students: 40,
+            classes: 4,
+            term: { name: 'Autumn term', startsOn: '2026-09-02', endsOn: '2026-12-18' },
+          },
         }),
     });
     renderApp('/', makeSession(makeUser(['admin'])));
     const section = await screen.findByRole('region', { name: 'The organisation' });
     expect(within(section).getByText('Students').nextElementSibling).toHaveTextContent('40');
     expect(section).toHaveTextContent('Current term: Autumn term, 2 Sept 2026 to 18 Dec 2026.');
-    expect(within(section).getByRole('link', { name: 'Manage people' })).toHaveAttribute('href', '/people');
+    expect(within(section).getByRole('link', { name: 'Manage people' })).toHaveAttribute(
+      'href',
+      '/people',
+    );
   });
 
   it('gives a student their classes and teachers', async () => {
@@ -62,7 +76,13 @@ describe('Today page', () => {
           timeZone: 'Europe/London',
           organisationName: 'Larkfield Music School',
           roles: ['student'],
-          student: { name: 'Mira Osei', grade: 4, classes: [{ id: 'c1', name: 'Grade 4 group', code: 'G4', teachers: ['Ada Quill', 'Tom Reyes'] }] },
+          student: {
+            name: 'Mira Osei',
+            grade: 4,
+            classes: [
+              { id: 'c1', name: 'Grade 4 group', code: 'G4', teachers: ['Ada Quill', 'Tom Reyes'] },
+            ],
+          },
         }),
     });
     renderApp('/', makeSession(makeUser(['student'])));
@@ -74,6 +94,8 @@ describe('Today page', () => {
   it('says clearly when today could not be loaded', async () => {
     mockApi({ 'GET /api/today': () => apiError(403, 'Your membership here is not active.') });
     renderApp('/', makeSession(makeUser(['teacher'])));
-    expect(await screen.findByRole('alert')).toHaveTextContent("Could not load today's page. Your membership here is not active.");
+    expect(await screen.findByRole('alert')).toHaveTextContent(
+      "Could not load today's page. Your membership here is not active.",
+    );
   });
 });
