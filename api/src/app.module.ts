@@ -9,6 +9,9 @@ import type { Env } from './config/env.js';
 import { dataSourceOptions } from './database/data-source-options.js';
 import { HealthModule } from './health/health.module.js';
 import { TodayModule } from './today/today.module.js';
+import { RubricsModule } from './rubrics/rubrics.module.js';
+import { RequirementListsModule } from './requirement-lists/requirement-lists.module.js';
+import { FingeringsModule } from './fingerings/fingerings.module.js';
 import { UsersModule } from './users/users.module.js';
 
 @Module({
@@ -28,6 +31,9 @@ import { UsersModule } from './users/users.module.js';
     UsersModule,
     TodayModule,
     HealthModule,
+    RubricsModule,
+    RequirementListsModule,
+    FingeringsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

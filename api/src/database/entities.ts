@@ -7,6 +7,13 @@ import { Guardian } from '../students/entities/guardian.entity.js';
 import { Student } from '../students/entities/student.entity.js';
 import { Membership } from '../users/entities/membership.entity.js';
 import { Person } from '../users/entities/person.entity.js';
+import { RubricCriterionRow } from '../rubrics/entities/rubric-criterion.entity.js';
+import { RubricVersion } from '../rubrics/entities/rubric-version.entity.js';
+import { Rubric } from '../rubrics/entities/rubric.entity.js';
+import { RequirementLineRow } from '../requirement-lists/entities/requirement-line.entity.js';
+import { RequirementListVersion } from '../requirement-lists/entities/requirement-list-version.entity.js';
+import { RequirementList } from '../requirement-lists/entities/requirement-list.entity.js';
+import { StudentFingering } from '../fingerings/entities/student-fingering.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -19,4 +26,11 @@ export const entities = [
   Student,
   Guardian,
   AuditEvent,
+  Rubric,
+  RubricVersion,
+  RubricCriterionRow,
+  RequirementList,
+  RequirementListVersion,
+  RequirementLineRow,
+  StudentFingering,
 ];

@@ -1,4 +1,5 @@
 import { Foundation1764633600000 } from './1764633600000-Foundation.js';
+import { RubricsListsFingerings1796163564233 } from './1796163564233-RubricsListsFingerings.js';
 
 /** Listed by class, not by glob, so tests and dist/ share one list (toolchain.md). Append only. */
-export const migrations = [Foundation1764633600000];
+export const migrations = [Foundation1764633600000, RubricsListsFingerings1796163564233];
