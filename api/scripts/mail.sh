@@ -8,6 +8,7 @@
 set -euo pipefail
 # shellcheck source=lib/env.sh
 source "$(dirname "${BASH_SOURCE[0]}")/lib/env.sh"
+close_inherited_fds
 
 CATCHER_JS="$STAVEMARK_ROOT/api/dist/mail-catcher/catcher.js"
 PIDFILE="$RUN_DIR/mail-catcher-$MAIL_CATCHER_PORT.pid"

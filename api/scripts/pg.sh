@@ -13,6 +13,7 @@
 set -euo pipefail
 # shellcheck source=lib/env.sh
 source "$(dirname "${BASH_SOURCE[0]}")/lib/env.sh"
+close_inherited_fds
 
 IS_ROOT=0
 [ "$(id -u)" = 0 ] && IS_ROOT=1

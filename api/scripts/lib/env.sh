@@ -66,6 +66,16 @@ print_timings() {
   done
 }
 
+# Closes every descriptor above 2 that this script inherited (a caller's lock file, for one), so
+# that daemons started from here (PostgreSQL, the mail catcher) never hold it open for their life.
+close_inherited_fds() {
+  local fd
+  for fd in $(ls /proc/$$/fd 2>/dev/null); do
+    # 255 is bash's own handle on the script being read.
+    if [ "$fd" -gt 2 ] && [ "$fd" -lt 255 ]; then eval "exec $fd>&-" 2>/dev/null || true; fi
+  done
+}
+
 # Root privileges for apt: as root directly, otherwise through sudo when there is one.
 as_root() {
   if [ "$(id -u)" = 0 ]; then

@@ -66,16 +66,16 @@ for (const line of lines) {
   let f = report.numFailedTests;
   const skippedTests = (report.numPendingTests ?? 0) + (report.numTodoTests ?? 0);
   let extra = '';
-  if (exitCode !== '0' && f === 0) {
+  if (report.numTotalTests === 0) {
+    f = 1;
+    extra = `; ran no test${exitCode !== '0' ? ` (exit ${exitCode}: no test files found?)` : ''} (counted as 1 failure)`;
+  } else if (exitCode !== '0' && f === 0) {
     // Crashed files, unhandled errors, or no tests found: the runner failed without a failing test.
     f = 1;
     const brokenFiles = (report.testResults ?? []).filter((t) => t.status === 'failed').length;
     extra = brokenFiles
       ? `; ${brokenFiles} test file(s) failed to run (counted as 1 failure)`
       : `; runner exited ${exitCode} without a failing test (counted as 1 failure)`;
-  } else if (report.numTotalTests === 0) {
-    f = 1;
-    extra = '; ran no test (counted as 1 failure)';
   }
   passed += p;
   failed += f;
