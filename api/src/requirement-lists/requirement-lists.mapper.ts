@@ -1,5 +1,7 @@
+import { normaliseKeyName } from '@stavemark/shared';
 import type {
   RequirementLineView,
+  RequirementListVersionBody,
   RequirementListDetail,
   RequirementListSummary,
   RequirementListVersionSummary,
@@ -82,3 +84,31 @@ export function toListSummary(l: RequirementList, versions: RequirementListVersi
 export function toListDetail(l: RequirementList, versions: RequirementListVersion[]): RequirementListDetail {
   return { ...toListSummary(l, versions), versions: versions.map(toListVersionSummary) };
 }
+
+/** Rows for the body's lines; a line keeps its id when it names one of this draft's lines. */
+export function toLineRows(listVersionId: string, body: Pick<RequirementListVersionBody, 'lines'>, keepIds: ReadonlySet<string> = new Set()): Partial<RequirementLineRow>[] {
+  return body.lines.map((l, position) => ({
+    ...(l.id && keepIds.has(l.id) ? { id: l.id } : {}),
+    listVersionId,
+    position,
+    kind: l.kind,
+    label: l.label || null,
+    keys: [...new Set(l.keys.map(normaliseKeyName))],
+    modes: l.modes,
+    hands: l.hands,
+    motions: l.motions,
+    octaves: l.octaves,
+    directions: l.directions && l.directions.length > 0 ? l.directions : null,
+    articulations: l.articulations,
+    dynamics: l.dynamics,
+    inversions: l.inversions,
+    tempoBpm: l.tempo.bpm,
+    tempoBeatUnit: l.tempo.beatUnit,
+    tempoNotesPerBeat: l.tempo.notesPerBeat,
+    rubricVersionId: l.rubricVersionId,
+    difficultyWeight: l.difficultyWeight,
+    titles: l.titles && l.titles.length > 0 ? l.titles : null,
+    durationSeconds: l.durationSeconds ?? null,
+  }));
+}
+

@@ -4,7 +4,6 @@ import { DataSource, type EntityManager, In, Repository } from 'typeorm';
 import {
   drawRequests,
   DrawError,
-  normaliseKeyName,
   type ListRequirementListsQuery,
   type RequirementListDetail,
   type RequirementListSummary,
@@ -21,7 +20,7 @@ import { callerSeesDrafts, isUniqueViolation } from '../rubrics/versioning.js';
 import { RequirementLineRow } from './entities/requirement-line.entity.js';
 import { RequirementListVersion } from './entities/requirement-list-version.entity.js';
 import { RequirementList } from './entities/requirement-list.entity.js';
-import { toListDetail, toListSummary, toListVersionView } from './requirement-lists.mapper.js';
+import { toLineRows, toListDetail, toListSummary, toListVersionView } from './requirement-lists.mapper.js';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const VERSION_RELATIONS = { lines: { rubricVersion: true }, createdBy: true, publishedBy: true } as const;
@@ -127,7 +126,7 @@ export class RequirementListsService {
       Object.assign(v, { name: body.name, grade: body.grade, totalMarks: body.totalMarks, selectionRule: body.selectionRule });
       await versions.save(v);
       await em.delete(RequirementLineRow, { listVersionId: id });
-      await em.save(RequirementLineRow, lineRows(id, body, new Set(before.lines.map((l) => l.id))));
+      await em.save(RequirementLineRow, toLineRows(id, body, new Set(before.lines.map((l) => l.id))));
       await this.audit.record(
         {
           action: 'requirement_list.draft_updated',
@@ -234,7 +233,7 @@ export class RequirementListsService {
           createdByPersonId: RequestContext.caller()?.personId ?? null,
         }),
       );
-      await em.save(RequirementLineRow, lineRows(v.id, body, new Set()));
+      await em.save(RequirementLineRow, toLineRows(v.id, body, new Set()));
       return v;
     } catch (err) {
       if (isUniqueViolation(err)) throw conflict('Someone else changed this list at the same moment; reload it and try again.');
@@ -242,31 +241,3 @@ export class RequirementListsService {
     }
   }
 }
-
-/** Rows for the body's lines; a line keeps its id when it names one of this draft's lines. */
-function lineRows(listVersionId: string, body: RequirementListVersionBody, keepIds: Set<string>): Partial<RequirementLineRow>[] {
-  return body.lines.map((l, position) => ({
-    ...(l.id && keepIds.has(l.id) ? { id: l.id } : {}),
-    listVersionId,
-    position,
-    kind: l.kind,
-    label: l.label || null,
-    keys: [...new Set(l.keys.map(normaliseKeyName))],
-    modes: l.modes,
-    hands: l.hands,
-    motions: l.motions,
-    octaves: l.octaves,
-    directions: l.directions && l.directions.length > 0 ? l.directions : null,
-    articulations: l.articulations,
-    dynamics: l.dynamics,
-    inversions: l.inversions,
-    tempoBpm: l.tempo.bpm,
-    tempoBeatUnit: l.tempo.beatUnit,
-    tempoNotesPerBeat: l.tempo.notesPerBeat,
-    rubricVersionId: l.rubricVersionId,
-    difficultyWeight: l.difficultyWeight,
-    titles: l.titles && l.titles.length > 0 ? l.titles : null,
-    durationSeconds: l.durationSeconds ?? null,
-  }));
-}
-

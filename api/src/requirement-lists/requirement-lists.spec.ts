@@ -54,9 +54,10 @@ describe('requirement lists', () => {
 
   beforeAll(async () => {
     t = await createTestApp();
-    [teacher, examiner, student, otherAdmin] = await Promise.all(
-      ['teacher@demo.example', 'examiner@demo.example', 'student@demo.example', 'admin@fernhill.example'].map((e) => signIn(t, e)),
-    );
+    teacher = await signIn(t, 'teacher@demo.example');
+    examiner = await signIn(t, 'examiner@demo.example');
+    student = await signIn(t, 'student@demo.example');
+    otherAdmin = await signIn(t, 'admin@fernhill.example');
     const rubric = async (kinds: string[], publish: boolean) => {
       const r = await t.http().post('/api/rubrics').set(auth(teacher)).send({ name: `For ${kinds.join(' and ')}`, kinds, criteria });
       if (publish) await t.http().post(`/api/rubric-versions/${r.body.id}/publish`).set(auth(teacher));

@@ -1,5 +1,6 @@
 // Reading and writing rubric files (rubrics/README.md documents the format).
 import { RUBRIC_FILE_FORMAT, RUBRIC_FILE_FORMAT_VERSION, rubricFileSchema, type RubricFile, type RubricVersionView } from '@stavemark/shared';
+import { z } from 'zod';
 import { invalid } from '../common/errors.js';
 import { issuesToDetails } from '../common/validation.js';
 
@@ -53,5 +54,19 @@ export function toRubricFile(v: RubricVersionView, starterKey: string | null, ex
     exportedAt: exportedAt.toISOString(),
     source: { version: v.version, status: v.status, ...(starterKey ? { starterKey } : {}) },
     rubric: { name: v.name, kinds: v.kinds, criteria: v.criteria },
+  };
+}
+
+/**
+ * The JSON Schema (draft 2020-12) of a rubric file, derived from the same zod shape the import
+ * uses; rubrics/rubric-file.schema.json holds a copy that a test keeps equal to this.
+ */
+export function rubricFileJsonSchema(): Record<string, unknown> {
+  return {
+    ...z.toJSONSchema(rubricFileSchema, { io: 'input', unrepresentable: 'any' }),
+    $id: 'https://stavemark.example/schemas/rubric-file-v1.json',
+    title: 'Stavemark rubric file, format version 1',
+    description:
+      'Extra rules not expressible here: descriptor bands within one criterion may not overlap, no band may exceed the criterion maximum, min ≤ max, and criterion keys are unique. See rubrics/README.md.',
   };
 }

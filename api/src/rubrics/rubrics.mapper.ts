@@ -1,4 +1,4 @@
-import type { PersonRef, RubricCriterion, RubricDetail, RubricSummary, RubricVersionSummary, RubricVersionView } from '@stavemark/shared';
+import type { PersonRef, RubricBody, RubricCriterion, RubricDetail, RubricSummary, RubricVersionSummary, RubricVersionView } from '@stavemark/shared';
 import type { Person } from '../users/entities/person.entity.js';
 import type { RubricCriterionRow } from './entities/rubric-criterion.entity.js';
 import type { RubricVersion } from './entities/rubric-version.entity.js';
@@ -62,4 +62,18 @@ export function toRubricSummary(r: Rubric, versions: RubricVersion[]): RubricSum
 
 export function toRubricDetail(r: Rubric, versions: RubricVersion[]): RubricDetail {
   return { ...toRubricSummary(r, versions), versions: versions.map(toVersionSummary) };
+}
+
+/** Rows for a version's criteria, in the order given. */
+export function toCriterionRows(rubricVersionId: string, body: Pick<RubricBody, 'criteria'>): Partial<RubricCriterionRow>[] {
+  return body.criteria.map((c, position) => ({
+    rubricVersionId,
+    position,
+    key: c.key,
+    label: c.label,
+    description: c.description ?? null,
+    weight: c.weight,
+    maxMark: c.maxMark,
+    descriptors: c.descriptors,
+  }));
 }

@@ -11,7 +11,7 @@ import { RubricCriterionRow } from './entities/rubric-criterion.entity.js';
 import { RubricVersion } from './entities/rubric-version.entity.js';
 import { Rubric } from './entities/rubric.entity.js';
 import { parseRubricFile, toRubricFile } from './rubric-file.js';
-import { toCriterion, toRubricDetail, toRubricSummary, toVersionView } from './rubrics.mapper.js';
+import { toCriterion, toCriterionRows, toRubricDetail, toRubricSummary, toVersionView } from './rubrics.mapper.js';
 import { callerSeesDrafts, isUniqueViolation, slug } from './versioning.js';
 
 const VERSION_RELATIONS = { criteria: true, createdBy: true, publishedBy: true } as const;
@@ -113,7 +113,7 @@ export class RubricsService {
       v.kinds = body.kinds;
       await versions.save(v);
       await em.delete(RubricCriterionRow, { rubricVersionId: id });
-      await em.save(RubricCriterionRow, criterionRows(id, body));
+      await em.save(RubricCriterionRow, toCriterionRows(id, body));
       await this.audit.record(
         { action: 'rubric.draft_updated', entity: 'rubric_version', entityId: id, before, after: body },
         em,
@@ -164,24 +164,11 @@ export class RubricsService {
       const v = await versions.save(
         versions.create({ rubricId, version, status: 'draft', name: body.name, kinds: body.kinds, createdByPersonId: RequestContext.caller()?.personId ?? null }),
       );
-      await em.save(RubricCriterionRow, criterionRows(v.id, body));
+      await em.save(RubricCriterionRow, toCriterionRows(v.id, body));
       return v;
     } catch (err) {
       if (isUniqueViolation(err)) throw conflict('Someone else changed this rubric at the same moment; reload it and try again.');
       throw err;
     }
   }
-}
-
-function criterionRows(rubricVersionId: string, body: RubricBody): Partial<RubricCriterionRow>[] {
-  return body.criteria.map((c, position) => ({
-    rubricVersionId,
-    position,
-    key: c.key,
-    label: c.label,
-    description: c.description ?? null,
-    weight: c.weight,
-    maxMark: c.maxMark,
-    descriptors: c.descriptors,
-  }));
 }

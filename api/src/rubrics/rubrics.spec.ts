@@ -24,9 +24,11 @@ describe('rubrics', () => {
 
   beforeAll(async () => {
     t = await createTestApp();
-    [teacher, admin, examiner, student, otherAdmin] = await Promise.all(
-      ['teacher@demo.example', 'admin@demo.example', 'examiner@demo.example', 'student@demo.example', 'admin@fernhill.example'].map((e) => signIn(t, e)),
-    );
+    teacher = await signIn(t, 'teacher@demo.example');
+    admin = await signIn(t, 'admin@demo.example');
+    examiner = await signIn(t, 'examiner@demo.example');
+    student = await signIn(t, 'student@demo.example');
+    otherAdmin = await signIn(t, 'admin@fernhill.example');
   });
   afterAll(() => t.close());
 

@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import type { EntityManager } from 'typeorm';
 import type { Role } from '@stavemark/shared';
 import { hashPassword } from '../auth/passwords.js';
+import { seedStarterLibrary } from '../rubrics/starter-library.js';
 
 export const DEMO_PASSWORD = 'stavemark-demo';
 
@@ -143,5 +144,6 @@ export async function seedDemo(em: EntityManager, data: DemoSchool, today: strin
   const hash = await hashPassword(DEMO_PASSWORD);
   const organisationId = await seedOrganisation(em, data, today, hash);
   for (const other of data.otherOrganisations) await seedOrganisation(em, other, today, hash);
+  await seedStarterLibrary(em, organisationId);
   return { organisationId };
 }

@@ -5,3 +5,4 @@ export * from './errors.js';
 export * from './rubrics.js';
 export * from './requirement-lists.js';
 export * from './fingerings.js';
+export * from './sittings.js';
