@@ -68,4 +68,4 @@ cat <<EOF
 EOF
 # Stop everything as soon as any child ends (for example Vite failing to start).
 wait -n "${CHILDREN[@]}" || true
-warn "a dev process ended; stopping the others"
+echo "A dev process ended (or Ctrl-C was pressed); stopping the others."

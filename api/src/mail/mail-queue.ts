@@ -1,0 +1,123 @@
+import { Inject, Injectable, Logger, type OnApplicationShutdown } from '@nestjs/common';
+import PgBoss from 'pg-boss';
+import type { EntityManager } from 'typeorm';
+import { ENV } from '../config/config.module.js';
+import type { Env } from '../config/env.js';
+
+export const MAIL_QUEUE = 'outbound-mail';
+export interface MailJob {
+  mailId: string;
+}
+export type MailJobHandler = (jobs: PgBoss.JobWithMetadata<MailJob>[]) => Promise<void>;
+
+/** pg-boss runs SQL through this: inside our transaction, so a rolled-back change queues nothing. */
+function inTransaction(em: EntityManager): PgBoss.Db {
+  const runner = em.queryRunner;
+  if (!runner?.isTransactionActive) throw new Error('Mail is queued only inside the transaction of the change that causes it');
+  return {
+    executeSql: async (text: string, values: unknown[]) => ({ rows: (await runner.query(text, values, true)).records as unknown[] }),
+  };
+}
+
+/**
+ * The job queue for e-mail: pg-boss 10 (design.md §6), kept in PostgreSQL so several API
+ * instances share it. Retries use pg-boss's exponential back-off. The server starts even when
+ * PostgreSQL is down (health answers 503); the queue then starts on first use.
+ */
+@Injectable()
+export class MailQueue implements OnApplicationShutdown {
+  private readonly logger = new Logger('MailQueue');
+  private readonly boss: PgBoss;
+  private starting: Promise<void> | null = null;
+  private workerId: string | null = null;
+  private stopped = false;
+
+  constructor(@Inject(ENV) private readonly env: Env) {
+    this.boss = new PgBoss({
+      connectionString: env.DATABASE_URL,
+      max: 3,
+      application_name: 'stavemark-mail-queue',
+      // No cron jobs here; maintenance (expiry, archive) stays on.
+      schedule: false,
+    });
+    this.boss.on('error', (err) => this.logger.warn(`job queue: ${err.message}`));
+  }
+
+  /** Starts pg-boss (creating its schema on a new database) and the mail queue, once. */
+  ensureStarted(): Promise<void> {
+    if (this.stopped) return Promise.reject(new Error('The mail queue has stopped'));
+    this.starting ??= (async () => {
+      await this.boss.start();
+      if (!(await this.boss.getQueue(MAIL_QUEUE))) {
+        try {
+          await this.boss.createQueue(MAIL_QUEUE, {
+            name: MAIL_QUEUE,
+            retryLimit: this.env.MAIL_RETRY_LIMIT,
+            retryDelay: this.env.MAIL_RETRY_DELAY_SECONDS,
+            retryBackoff: true,
+          });
+        } catch (err) {
+          // Another instance created it at the same moment.
+          if (!(await this.boss.getQueue(MAIL_QUEUE))) throw err;
+        }
+      }
+    })().catch((err: unknown) => {
+      this.starting = null;
+      throw err;
+    });
+    return this.starting;
+  }
+
+  /** Registers the worker; retries in the background while the database is unreachable. */
+  startWorker(handler: MailJobHandler): void {
+    const attempt = (): void => {
+      if (this.stopped) return;
+      this.ensureStarted()
+        .then(async () => {
+          this.workerId = await this.boss.work<MailJob>(
+            MAIL_QUEUE,
+            { includeMetadata: true, batchSize: 10, pollingIntervalSeconds: this.env.MAIL_POLL_SECONDS },
+            handler,
+          );
+        })
+        .catch((err: unknown) => {
+          this.logger.warn(`mail worker not started yet (${err instanceof Error ? err.message : String(err)}); retrying in 5 s`);
+          setTimeout(attempt, 5000).unref();
+        });
+    };
+    attempt();
+  }
+
+  /** Queues one job per mail in the caller's transaction. */
+  async enqueue(em: EntityManager, mailIds: string[]): Promise<void> {
+    if (mailIds.length === 0) return;
+    const db = inTransaction(em);
+    await this.ensureStarted();
+    await this.boss.insert(
+      mailIds.map((mailId) => ({ name: MAIL_QUEUE, data: { mailId } })),
+      { db },
+    );
+  }
+
+  /** After commit: wake the worker instead of waiting for its next poll. */
+  kick(): void {
+    if (this.workerId) this.boss.notifyWorker(this.workerId);
+  }
+
+  async fail(jobId: string, err: unknown): Promise<void> {
+    await this.boss.fail(MAIL_QUEUE, jobId, { message: err instanceof Error ? err.message : String(err) });
+  }
+
+  /** For tests and the Outbox: the pg-boss view of one job. */
+  job(jobId: string): Promise<PgBoss.JobWithMetadata<MailJob> | null> {
+    return this.boss.getJobById<MailJob>(MAIL_QUEUE, jobId);
+  }
+
+  async onApplicationShutdown(): Promise<void> {
+    this.stopped = true;
+    if (this.starting) {
+      await this.starting.catch(() => undefined);
+      await this.boss.stop({ graceful: true, timeout: 5000, wait: true }).catch(() => undefined);
+    }
+  }
+}
