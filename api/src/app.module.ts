@@ -13,6 +13,11 @@ import { RubricsModule } from './rubrics/rubrics.module.js';
 import { RequirementListsModule } from './requirement-lists/requirement-lists.module.js';
 import { FingeringsModule } from './fingerings/fingerings.module.js';
 import { UsersModule } from './users/users.module.js';
+import { MailModule } from './mail/mail.module.js';
+import { InvitationsModule } from './invitations/invitations.module.js';
+import { ClassesModule } from './classes/classes.module.js';
+import { StudentsModule } from './students/students.module.js';
+import { OutboxModule } from './outbox/outbox.module.js';
 
 @Module({
   imports: [
@@ -34,6 +39,11 @@ import { UsersModule } from './users/users.module.js';
     RubricsModule,
     RequirementListsModule,
     FingeringsModule,
+    MailModule,
+    InvitationsModule,
+    ClassesModule,
+    StudentsModule,
+    OutboxModule.forEnvironment(),
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

@@ -27,6 +27,18 @@ export const envSchema = z
     MAIL_CATCHER_DIR: z.string().optional(),
     PUBLIC_URL: z.string().url().default('http://localhost:3000'),
     TRUST_PROXY: bool.default(false),
+    // E-mail sending through the job queue (issue 4): retries with exponential back-off.
+    MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(6),
+    MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
+    MAIL_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),
+    // One-time links in e-mails.
+    INVITATION_LINK_HOURS: z.coerce.number().int().min(1).max(24 * 30).default(72),
+    RESET_LINK_HOURS: z.coerce.number().int().min(1).max(72).default(2),
+    CONSENT_LINK_DAYS: z.coerce.number().int().min(1).max(90).default(14),
+    // Limits for the public link routes (forgot password, set password, consent).
+    LINK_LIMIT_PER_EMAIL: z.coerce.number().int().min(1).default(3),
+    LINK_LIMIT_PER_CLIENT: z.coerce.number().int().min(1).default(30),
+    LINK_LIMIT_WINDOW_SECONDS: z.coerce.number().int().min(1).default(900),
   })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV !== 'production') return;

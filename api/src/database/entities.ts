@@ -14,6 +14,8 @@ import { RequirementLineRow } from '../requirement-lists/entities/requirement-li
 import { RequirementListVersion } from '../requirement-lists/entities/requirement-list-version.entity.js';
 import { RequirementList } from '../requirement-lists/entities/requirement-list.entity.js';
 import { StudentFingering } from '../fingerings/entities/student-fingering.entity.js';
+import { OutboundMail } from '../mail/entities/outbound-mail.entity.js';
+import { AccountToken } from '../invitations/entities/account-token.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -33,4 +35,6 @@ export const entities = [
   RequirementListVersion,
   RequirementLineRow,
   StudentFingering,
+  OutboundMail,
+  AccountToken,
 ];

@@ -5,4 +5,6 @@ export * from './errors.js';
 export * from './rubrics.js';
 export * from './requirement-lists.js';
 export * from './fingerings.js';
+export * from './classes.js';
+export * from './invitations.js';
 export * from './sittings.js';
