@@ -21,11 +21,12 @@ describe('students’ approved fingerings', () => {
 
   beforeAll(async () => {
     t = await createTestApp();
-    [teacher, otherTeacher, admin, examiner, student, otherAdmin] = await Promise.all(
-      ['teacher@demo.example', 'tomasz.whitcombe@demo.example', 'admin@demo.example', 'examiner@demo.example', 'student@demo.example', 'admin@fernhill.example'].map((e) =>
-        signIn(t, e),
-      ),
-    );
+    teacher = await signIn(t, 'teacher@demo.example');
+    otherTeacher = await signIn(t, 'tomasz.whitcombe@demo.example');
+    admin = await signIn(t, 'admin@demo.example');
+    examiner = await signIn(t, 'examiner@demo.example');
+    student = await signIn(t, 'student@demo.example');
+    otherAdmin = await signIn(t, 'admin@fernhill.example');
     const ids = (await t.db.query(`SELECT pupil_number, id FROM students WHERE pupil_number IN ('KL1021', 'KL1031')`)) as { pupil_number: string; id: string }[];
     ellis = ids.find((r) => r.pupil_number === 'KL1021')!.id;
     diploma = ids.find((r) => r.pupil_number === 'KL1031')!.id;

@@ -7,4 +7,3 @@ export * from './requirement-lists.js';
 export * from './fingerings.js';
 export * from './classes.js';
 export * from './invitations.js';
-export * from './sittings.js';
