@@ -7,3 +7,4 @@ export * from './requirement-lists.js';
 export * from './fingerings.js';
 export * from './classes.js';
 export * from './invitations.js';
+export * from './sittings.js';
