@@ -228,11 +228,16 @@ fi
 
 # --- a server for e2e and browser suites -------------------------------------------------------
 start_e2e_server() {
-  local db_url_e2e old
-  # A run that was killed may have left its database behind; this run holds the lock, so any
-  # other stavemark_e2e_* database is such a leftover.
-  for old in $(bash "$STAVEMARK_SCRIPTS/pg.sh" list-dbs 'stavemark\_e2e\_%'); do
-    bash "$STAVEMARK_SCRIPTS/pg.sh" dropdb "$old" >/dev/null && echo "Dropped leftover database $old."
+  local db_url_e2e
+  # A run that was killed (kill -9) may have left its database behind. Only names this script
+  # makes (stavemark_e2e_<timestamp>_<pid>) whose run is gone are dropped; nothing else is touched.
+  local name pid
+  for name in $(bash "$STAVEMARK_SCRIPTS/pg.sh" list-dbs 'stavemark\_e2e\_%'); do
+    [[ "$name" =~ ^stavemark_e2e_[0-9]{14}_([0-9]+)$ ]] || continue
+    pid="${BASH_REMATCH[1]}"
+    if [ "$pid" != "$$" ] && ! tr '\0' ' ' <"/proc/$pid/cmdline" 2>/dev/null | grep -q test-all.sh; then
+      bash "$STAVEMARK_SCRIPTS/pg.sh" dropdb "$name" >/dev/null && echo "Dropped leftover database $name."
+    fi
   done
   if port_in_use "$E2E_PORT"; then
     echo "port $E2E_PORT on 127.0.0.1 is taken by another program; set E2E_PORT=<free port>" >&2

@@ -102,10 +102,12 @@ apt_install() {
   as_root env DEBIAN_FRONTEND=noninteractive apt-get install -y -q --no-install-recommends "$@" </dev/null
 }
 
-# npm packages: `npm ci` when node_modules is missing or older than the lock file.
+# npm packages: `npm ci` when node_modules is missing, or when the lock file is newer than what
+# npm last installed and its package set really differs (lock-in-sync.mjs).
 ensure_npm_packages() {
   local marker="$STAVEMARK_ROOT/node_modules/.package-lock.json"
-  if [ ! -f "$marker" ] || [ "$STAVEMARK_ROOT/package-lock.json" -nt "$marker" ]; then
+  if [ ! -f "$marker" ] || { [ "$STAVEMARK_ROOT/package-lock.json" -nt "$marker" ] &&
+    ! node "$STAVEMARK_SCRIPTS/lib/lock-in-sync.mjs" "$STAVEMARK_ROOT"; }; then
     say "Installing npm packages (npm ci)"
     # Never --omit=optional: native parts (rolldown, lightningcss) arrive as optional deps.
     (cd "$STAVEMARK_ROOT" && npm ci --no-audit --no-fund) || die "npm ci failed"
