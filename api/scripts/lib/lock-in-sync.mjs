@@ -28,13 +28,17 @@ for (const [path, spec] of Object.entries(wanted)) {
     // Optional packages for other platforms (e.g. another OS's native binding) are never installed.
     if (!spec.optional && !spec.devOptional) problems.push(`missing ${path}`);
   } else if (have.version !== spec.version || Boolean(have.link) !== Boolean(spec.link)) {
-    problems.push(`${path}: installed ${have.version ?? have.resolved}, lock wants ${spec.version ?? spec.resolved}`);
+    problems.push(
+      `${path}: installed ${have.version ?? have.resolved}, lock wants ${spec.version ?? spec.resolved}`,
+    );
   }
 }
 for (const path of Object.keys(installed)) {
   if (path.includes('node_modules/') && !wanted[path]) problems.push(`extra ${path}`);
 }
 if (problems.length) {
-  console.log(`node_modules differs from package-lock.json (${problems.length}): ${problems.slice(0, 5).join('; ')}`);
+  console.log(
+    `node_modules differs from package-lock.json (${problems.length}): ${problems.slice(0, 5).join('; ')}`,
+  );
   process.exit(1);
 }
