@@ -288,7 +288,6 @@ if wants browser; then
   # same URL also goes as E2E_BASE_URL (or read BASE_URL in the vitest config file itself).
   run_suite browser "$STAVEMARK_ROOT/web" "$r" env "${TEST_ENV[@]}" BASE_URL="$E2E_URL" E2E_BASE_URL="$E2E_URL" \
     ACCESS_TOKEN_TTL_SECONDS="$E2E_ACCESS_TOKEN_TTL_SECONDS" CHROMIUM_PATH="$CHROMIUM" \
-    SCREENSHOT_DIR="$LOCAL_DIR/screenshots" \
     "${VITEST[@]}" "--outputFile=$r" --config e2e/vitest.config.ts
 fi
 
