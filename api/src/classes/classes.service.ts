@@ -138,11 +138,9 @@ export class ClassesService {
       if (input.fromClassId) {
         if (input.fromClassId === classId) throw invalid('The student is already in this class.');
         const from = await this.ownedClass(input.fromClassId, em);
-        const removed = (await em.query(`DELETE FROM class_members WHERE class_id = $1 AND student_id = $2 RETURNING student_id`, [
-          from.id,
-          student.id,
-        ])) as unknown[];
-        if (removed.length === 0) throw notFound('student in that class');
+        // TypeORM answers a DELETE with [rows, affected count].
+        const [, removed] = (await em.query(`DELETE FROM class_members WHERE class_id = $1 AND student_id = $2`, [from.id, student.id])) as [unknown, number];
+        if (removed === 0) throw notFound('student in that class');
       }
       await em.query(`INSERT INTO class_members (class_id, student_id) VALUES ($1, $2) ON CONFLICT DO NOTHING`, [target.id, student.id]);
       await this.audit.record(
@@ -161,11 +159,8 @@ export class ClassesService {
   async removeMember(classId: string, studentId: string): Promise<void> {
     await this.db.transaction(async (em) => {
       await this.ownedClass(classId, em);
-      const removed = (await em.query(`DELETE FROM class_members WHERE class_id = $1 AND student_id = $2 RETURNING student_id`, [
-        classId,
-        studentId,
-      ])) as unknown[];
-      if (removed.length === 0) throw notFound('student in this class');
+      const [, removed] = (await em.query(`DELETE FROM class_members WHERE class_id = $1 AND student_id = $2`, [classId, studentId])) as [unknown, number];
+      if (removed === 0) throw notFound('student in this class');
       await this.audit.record({ action: 'class.member_removed', entity: 'student', entityId: studentId, after: { classId } }, em);
     });
   }

@@ -3,6 +3,7 @@ import { InjectRepository } from '@nestjs/typeorm';
 import nodemailer, { type Transporter } from 'nodemailer';
 import type PgBoss from 'pg-boss';
 import { IsNull, Repository } from 'typeorm';
+import { now } from '../common/clock.js';
 import { ENV } from '../config/config.module.js';
 import type { Env } from '../config/env.js';
 import { AccountToken } from '../invitations/entities/account-token.entity.js';
@@ -94,7 +95,7 @@ export class MailSender implements OnApplicationBootstrap {
     const lifetime = linkLifetimeMs(token.purpose, this.env);
     const result = await this.tokens.update(
       { id: token.id, usedAt: IsNull(), revokedAt: IsNull() },
-      { tokenHash: hashLinkToken(raw), expiresAt: new Date(Date.now() + lifetime) },
+      { tokenHash: hashLinkToken(raw), expiresAt: new Date(now().getTime() + lifetime) },
     );
     if (!result.affected) return null;
     return { url: linkUrl(this.env.PUBLIC_URL, token.purpose, raw), lifetime: lifetimeWords(lifetime) };

@@ -102,6 +102,6 @@ export function renderMail(kind: MailKind, data: MailData, link: LinkFacts | nul
 
 export function lifetimeWords(ms: number): string {
   const hours = Math.round(ms / 3600_000);
-  if (hours % 24 === 0 && hours >= 48) return `${hours / 24} days`;
+  if (hours % 24 === 0 && hours > 72) return `${hours / 24} days`;
   return hours === 1 ? '1 hour' : `${hours} hours`;
 }

@@ -221,7 +221,10 @@ export class ClassImportService {
       const report: ImportRowReport = { line, status: 'error', ...check.display, changes: [], errors: check.errors };
       plan.report.rows.push(report);
       const row = check.row;
-      if (!row) return;
+      if (!row) {
+        plan.report.counts.error++;
+        return;
+      }
       const errors: string[] = [];
       const changes: string[] = [];
 
