@@ -23,8 +23,7 @@ TEST_MAIL_CATCHER_DIR="${TEST_MAIL_CATCHER_DIR:-$LOCAL_DIR/mail-test}"
 E2E_PORT="${E2E_PORT:-3100}"
 E2E_URL="http://127.0.0.1:$E2E_PORT"
 E2E_ACCESS_TOKEN_TTL_SECONDS=5 # short, so the browser tests see a silent refresh
-REPORT_DIR="$LOCAL_DIR/test-reports"
-RESULTS="$REPORT_DIR/results.tsv"
+REPORT_DIR="$LOCAL_DIR/test-reports" # the latest report of each suite, copied at the end
 CHROMIUM=/usr/bin/chromium
 
 usage() {
@@ -66,6 +65,9 @@ suite_config() {
 
 declare -A RUN=() # suites to run (selected and present)
 mkdir -p "$REPORT_DIR" "$LOG_DIR"
+# This run's own reports, so a run beside it (npm test -- shared) never mixes into its totals.
+RUN_REPORTS="$(mktemp -d "$REPORT_DIR/.run-XXXXXX")"
+RESULTS="$RUN_REPORTS/results.tsv"
 : >"$RESULTS"
 record() { printf '%s\t%s\t%s\t%s\t%s\t%s\n' "$1" "$2" "${3:-}" "${4:-}" "${5:-}" "${6:-}" >>"$RESULTS"; }
 # Results are written in suite order at the end; until then they wait here.
@@ -113,11 +115,12 @@ cleanup() {
     STARTED_CATCHER=0
   fi
 }
-trap cleanup EXIT
+trap 'cleanup; rm -rf "$RUN_REPORTS"' EXIT
 trap 'echo; echo "interrupted" >&2; exit 130' INT TERM
 
-# The test catcher and the e2e server use fixed ports: one such run at a time on this machine.
-if wants_any api e2e browser; then
+# The builds, the test catcher and the e2e server (fixed ports) are shared: one such run at a
+# time per checkout. (`npm test -- shared` needs none of them and never waits.)
+if [ "$FULL_RUN" = 1 ] || wants_any web api e2e browser; then
   exec 8>"$LOCAL_DIR/test-all.lock"
   if ! flock -n 8; then
     say "Another test run holds $LOCAL_DIR/test-all.lock; waiting for it to finish"
@@ -213,15 +216,15 @@ VITEST=("$NODE_BIN_DIR/vitest" run --reporter=default --reporter=json)
 
 # --- unit suites ---------------------------------------------------------------------------------
 if wants shared; then
-  r="$REPORT_DIR/shared.json"
+  r="$RUN_REPORTS/shared.json"
   run_suite shared "$STAVEMARK_ROOT/shared" "$r" "${VITEST[@]}" "--outputFile=$r"
 fi
 if wants web; then
-  r="$REPORT_DIR/web.json"
+  r="$RUN_REPORTS/web.json"
   run_suite web "$STAVEMARK_ROOT/web" "$r" "${VITEST[@]}" "--outputFile=$r"
 fi
 if wants api; then
-  r="$REPORT_DIR/api.json"
+  r="$RUN_REPORTS/api.json"
   run_suite api "$STAVEMARK_ROOT/api" "$r" env "${TEST_ENV[@]}" \
     "TEST_DATABASE_ADMIN_URL=$(db_url postgres)" "${VITEST[@]}" "--outputFile=$r"
 fi
@@ -277,13 +280,13 @@ if wants_any e2e browser; then
 fi
 
 if wants e2e; then
-  r="$REPORT_DIR/e2e.json"
+  r="$RUN_REPORTS/e2e.json"
   run_suite e2e "$STAVEMARK_ROOT/api" "$r" env "${TEST_ENV[@]}" API_URL="$E2E_URL" \
     DATABASE_URL="$E2E_DATABASE_URL" ACCESS_TOKEN_TTL_SECONDS="$E2E_ACCESS_TOKEN_TTL_SECONDS" \
     "$NODE_BIN_DIR/jest" --config test/jest-e2e.config.cjs --json "--outputFile=$r"
 fi
 if wants browser; then
-  r="$REPORT_DIR/browser.json"
+  r="$RUN_REPORTS/browser.json"
   # Vitest overwrites process.env.BASE_URL with Vite's base path ('/') inside the tests, so the
   # same URL also goes as E2E_BASE_URL (or read BASE_URL in the vitest config file itself).
   run_suite browser "$STAVEMARK_ROOT/web" "$r" env "${TEST_ENV[@]}" BASE_URL="$E2E_URL" E2E_BASE_URL="$E2E_URL" \
@@ -298,4 +301,5 @@ for s in "${ALL_SUITES[@]}"; do
   [ -n "${RESULT_LINE[$s]:-}" ] && printf '%s\n' "${RESULT_LINE[$s]}" >>"$RESULTS"
 done
 for ws in "${BUILD_FAILURES[@]}"; do record "build $ws" failed "" "" "" "compile or type errors (output above)"; done
+cp "$RUN_REPORTS"/*.json "$REPORT_DIR"/ 2>/dev/null
 node "$STAVEMARK_SCRIPTS/lib/sum-reports.mjs" "$RESULTS"
