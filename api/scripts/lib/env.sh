@@ -42,6 +42,7 @@ die() {
 }
 
 # Step timings, printed by print_timings. `timed "label" cmd args...` returns the command's status.
+SCRIPT_START="$EPOCHREALTIME"
 STEP_NAMES=()
 STEP_SECONDS=()
 STEP_STATUS=()
@@ -64,6 +65,7 @@ print_timings() {
     printf '  %-28s %7s s%s\n' "${STEP_NAMES[$i]}" "${STEP_SECONDS[$i]}" \
       "$([ "${STEP_STATUS[$i]}" = 0 ] || echo "  (exit ${STEP_STATUS[$i]})")"
   done
+  printf '  %-28s %7s s\n' "total so far" "$(elapsed_since "$SCRIPT_START")"
 }
 
 # Closes every descriptor above 2 that this script inherited (a caller's lock file, for one), so
