@@ -1,7 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { Role } from '@stavemark/shared';
 import { launch, screenshot, type Session } from './support/browser';
-import { DEMO, mainNavLinks, signIn } from './support/sign-in';
+import { DEMO, mainNavLinks, navLink, signIn } from './support/sign-in';
 
 const expectedNav: Record<Role, string[]> = {
   admin: ['Today', 'People'],
@@ -44,14 +44,16 @@ describe('each demo role signs in and sees its own navigation', () => {
     await screenshot(s.page, `today-${role}`);
 
     if (role === 'admin') {
-      await s.page.getByRole('link', { name: 'People' }).click();
+      await navLink(s.page, 'People').click();
       await s.page.getByRole('heading', { name: 'People', level: 1 }).waitFor();
       // The first page lists somebody; a search finds the demo teacher wherever they sort.
       await s.page.getByRole('cell', { name: /@/ }).first().waitFor();
       await screenshot(s.page, 'people-admin');
       await s.page.getByLabel('Search').fill(DEMO.teacher);
       await s.page.getByRole('cell', { name: DEMO.teacher, exact: true }).waitFor();
-      expect(await s.page.getByRole('table').getByRole('row').count()).toBe(2); // header + the one match
+      // The search is debounced and answered by the server: wait for the list to narrow.
+      const rows = s.page.getByRole('table').getByRole('row');
+      await expect.poll(() => rows.count(), { timeout: 10_000 }).toBe(2); // header + the one match
     } else {
       // Typing the address does not open a page that is not for this role.
       await s.page.goto(new URL('/people', s.page.url()).toString());

@@ -1,6 +1,6 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { launch, type Session } from './support/browser';
-import { DEMO, signIn } from './support/sign-in';
+import { DEMO, navLink, signIn } from './support/sign-in';
 
 // The server for this run is started with a short access-token lifetime (ACCESS_TOKEN_TTL_SECONDS=5),
 // so the test can outlive a token in seconds rather than the production quarter of an hour.
@@ -33,7 +33,7 @@ describe('a signed-in page keeps working past the access token expiry', () => {
     await s.page.waitForTimeout((ttl + 2) * 1000);
 
     // Data through a client-side navigation: the expired token gets a 401, the client renews and retries.
-    await s.page.getByRole('link', { name: 'People' }).click();
+    await navLink(s.page, 'People').click();
     await s.page.getByRole('cell', { name: /@/ }).first().waitFor(); // a row of people, from the API
     expect(new URL(s.page.url()).pathname).toBe('/people');
     expect(await s.page.getByRole('heading', { name: 'Sign in' }).count()).toBe(0);
@@ -46,7 +46,7 @@ describe('a signed-in page keeps working past the access token expiry', () => {
     expect(new URL(s.page.url()).pathname).toBe('/people');
 
     // And back to Today, whose data also loads.
-    await s.page.getByRole('link', { name: 'Today' }).click();
+    await navLink(s.page, 'Today').click();
     await s.page.getByRole('heading', { name: 'The organisation', level: 2 }).waitFor();
     expect(refreshes.filter((status) => status !== 200)).toEqual([]);
     expect(s.problems).toEqual([]);

@@ -3,8 +3,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 
-export const BASE_URL = (process.env.BASE_URL || 'http://localhost:3000').replace(/\/$/, '');
-export const SCREENSHOT_DIR = new URL('../../test-results/screenshots/', import.meta.url).pathname;
+// Set from BASE_URL by e2e/vitest.config.ts (vitest replaces BASE_URL itself inside tests).
+export const BASE_URL = (process.env.E2E_BASE_URL || 'http://localhost:3000').replace(/\/$/, '');
+/** web/test-results/screenshots (ignored by git) unless the test runner names another folder. */
+export const SCREENSHOT_DIR =
+  process.env.SCREENSHOT_DIR ||
+  new URL('../../test-results/screenshots/', import.meta.url).pathname;
 
 export interface Session {
   context: BrowserContext;

@@ -41,3 +41,10 @@ export async function mainNavLinks(page: Page): Promise<string[]> {
   const links = page.getByRole('navigation', { name: 'Main' }).getByRole('link');
   return (await links.allTextContents()).map((t) => t.trim());
 }
+
+/** A link of the main navigation bar (pages may link to the same place in other words). */
+export function navLink(page: Page, label: string) {
+  return page
+    .getByRole('navigation', { name: 'Main' })
+    .getByRole('link', { name: label, exact: true });
+}

@@ -21,8 +21,8 @@ type SortField = UsersQuery['sort'];
 type StatusFilter = 'all' | 'active' | 'inactive';
 
 const PAGE_SIZES = [20, 50, 100];
-const roleOptions = [
-  { label: 'All roles', value: null },
+const roleOptions: { label: string; value: Role | 'all' }[] = [
+  { label: 'All roles', value: 'all' },
   ...ROLES.map((r) => ({ label: roleLabel(r), value: r })),
 ];
 const statusOptions: { label: string; value: StatusFilter }[] = [
@@ -41,7 +41,7 @@ export function PeoplePage() {
   const timeZone = activeMembership(me)?.timeZone ?? 'UTC';
 
   const [search, setSearch] = useState('');
-  const [role, setRole] = useState<Role | null>(null);
+  const [role, setRole] = useState<Role | 'all'>('all');
   const [status, setStatus] = useState<StatusFilter>('all');
   const [page, setPage] = useState(1);
   const [pageSize, setPageSize] = useState(20);
@@ -53,7 +53,7 @@ export function PeoplePage() {
   const debouncedSearch = useDebouncedValue(search.trim(), 300);
   const query: UsersQuery = {
     ...(debouncedSearch ? { search: debouncedSearch } : {}),
-    ...(role ? { role } : {}),
+    ...(role !== 'all' ? { role } : {}),
     ...(status !== 'all' ? { active: status === 'active' } : {}),
     page,
     pageSize,
@@ -103,7 +103,6 @@ export function PeoplePage() {
         'They are signed out at once and cannot sign in until reactivated. Their records stay.',
       acceptLabel: 'Deactivate',
       rejectLabel: 'Keep active',
-      acceptClassName: 'p-button-danger',
       rejectClassName: 'p-button-secondary',
       defaultFocus: 'reject',
       accept: () => changeActive(person, false),
@@ -138,7 +137,7 @@ export function PeoplePage() {
           <Button
             type="button"
             size="small"
-            severity="danger"
+            severity="secondary"
             label="Deactivate"
             aria-label={`Deactivate ${row.displayName}`}
             disabled={self || setActive.isPending}
@@ -196,7 +195,7 @@ export function PeoplePage() {
             inputId={`${id}-role`}
             value={role}
             options={roleOptions}
-            onChange={(e) => setRole(e.value as Role | null)}
+            onChange={(e) => setRole(e.value as Role | 'all')}
           />
         </div>
         <div className="sm-field">

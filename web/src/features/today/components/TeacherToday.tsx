@@ -25,7 +25,7 @@ export function TeacherToday({ data }: { data: NonNullable<TodayView['teacher']>
               <tr key={c.id}>
                 <td>{c.name}</td>
                 <td>{c.code}</td>
-                <td className="sm-num">{c.grade ?? 'Mixed'}</td>
+                <td className="sm-num">{c.grade ?? '—'}</td>
                 <td className="sm-num">{c.studentCount}</td>
               </tr>
             ))}

@@ -33,7 +33,7 @@ describe('Today page', () => {
     expect(rows.map((r) => r.textContent)).toEqual([
       'ClassCodeGradeStudents',
       'Tuesday juniorsTUE-J29',
-      'Open studioOPENMixed4',
+      'Open studioOPEN—4',
     ]);
     expect(screen.getByRole('region', { name: 'Your sittings today' })).toHaveTextContent(
       'No sittings are assigned to you today.',
