@@ -24,7 +24,7 @@ describe('each demo role signs in and sees its own navigation', () => {
     s = await launch();
   });
   afterEach(async () => {
-    await s.close();
+    await s?.close(); // s is unset when launch itself failed
   });
 
   it.each(Object.keys(DEMO) as Role[])('%s', async (role) => {

@@ -12,7 +12,7 @@ describe('a signed-in page keeps working past the access token expiry', () => {
     s = await launch();
   });
   afterEach(async () => {
-    await s.close();
+    await s?.close(); // s is unset when launch itself failed
   });
 
   it('renews the token silently and loads data without a trip to sign-in', async (ctx) => {

@@ -8,7 +8,7 @@ describe('sign-in errors', () => {
     s = await launch();
   });
   afterEach(async () => {
-    await s.close();
+    await s?.close(); // s is unset when launch itself failed
   });
 
   it('a wrong password shows the API message in an alert and stays on sign-in', async () => {

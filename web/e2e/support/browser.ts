@@ -20,25 +20,31 @@ export interface Session {
 
 /** Debian's chromium with a fresh profile (cookies from one test never leak into the next). */
 export async function launch(): Promise<Session> {
+  const origin = new URL(BASE_URL).origin;
   const profile = mkdtempSync(join(tmpdir(), 'stavemark-e2e-'));
-  const context = await chromium.launchPersistentContext(profile, {
-    executablePath: process.env.CHROMIUM_PATH || '/usr/bin/chromium',
-    headless: true,
-    viewport: { width: 1280, height: 800 },
-    locale: 'en-GB',
-    args: [
-      '--no-sandbox',
-      '--disable-gpu',
-      '--disable-quic',
-      '--no-first-run',
-      '--disable-background-networking',
-      '--disable-component-update',
-      '--disable-sync',
-    ],
-  });
+  let context: BrowserContext;
+  try {
+    context = await chromium.launchPersistentContext(profile, {
+      executablePath: process.env.CHROMIUM_PATH || '/usr/bin/chromium',
+      headless: true,
+      viewport: { width: 1280, height: 800 },
+      locale: 'en-GB',
+      args: [
+        '--no-sandbox',
+        '--disable-gpu',
+        '--disable-quic',
+        '--no-first-run',
+        '--disable-background-networking',
+        '--disable-component-update',
+        '--disable-sync',
+      ],
+    });
+  } catch (error) {
+    rmSync(profile, { recursive: true, force: true });
+    throw error;
+  }
   const page = context.pages()[0] ?? (await context.newPage());
   const problems: string[] = [];
-  const origin = new URL(BASE_URL).origin;
   page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
   // Fonts, icons and scripts all ship with the app; nothing may come from elsewhere.
   page.on('request', (request) => {
