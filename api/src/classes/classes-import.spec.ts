@@ -137,7 +137,7 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     expect(siblings.text).toMatch(/http:\/\/localhost:3000\/account\/consent#token=[A-Za-z0-9_-]{43}/);
     const invite = to('saoirse.lambourne@mail.example');
     expect(invite.subject).toBe('Welcome to Stavemark at Kestrel Lane Music School');
-    expect(invite.text).toContain('The link works once, for 72 hours.');
+    expect(invite.text).toContain('The link works once, for 72 hours. If it has run out, ask for a fresh one here: http://localhost:3000/account/forgot-password');
     expect(to('idris.penhale@pupils.example').subject).toMatch(/^Welcome/);
     expect(to('wyn.penhale@family.example').subject).toMatch(/^Idris at/);
     expect(to('dani.reyes@family.example').subject).toMatch(/^Juniper at/);

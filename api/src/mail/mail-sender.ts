@@ -98,6 +98,10 @@ export class MailSender implements OnApplicationBootstrap {
       { tokenHash: hashLinkToken(raw), expiresAt: new Date(now().getTime() + lifetime) },
     );
     if (!result.affected) return null;
-    return { url: linkUrl(this.env.PUBLIC_URL, token.purpose, raw), lifetime: lifetimeWords(lifetime) };
+    return {
+      url: linkUrl(this.env.PUBLIC_URL, token.purpose, raw),
+      forgotUrl: `${this.env.PUBLIC_URL.replace(/\/$/, '')}/account/forgot-password`,
+      lifetime: lifetimeWords(lifetime),
+    };
   }
 }

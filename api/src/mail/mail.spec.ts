@@ -22,7 +22,7 @@ async function freePort(): Promise<number> {
 }
 
 describe('e-mail templates', () => {
-  const link = { url: 'http://localhost:3000/account/welcome#token=abc', lifetime: '72 hours' };
+  const link = { url: 'http://localhost:3000/account/welcome#token=abc', forgotUrl: 'http://localhost:3000/account/forgot-password', lifetime: '72 hours' };
   it('text and HTML parts; names are escaped in HTML', () => {
     const m = renderMail('invitation', { organisationName: 'Kestrel <Lane> & Co', displayName: 'Ada "A" Pendry' }, link);
     expect(m.subject).toBe('Welcome to Stavemark at Kestrel <Lane> & Co');

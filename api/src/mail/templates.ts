@@ -23,6 +23,8 @@ export interface RenderedMail {
 
 export interface LinkFacts {
   url: string;
+  /** Where to ask for a fresh link when this one has run out. */
+  forgotUrl: string;
   /** "72 hours", "14 days". */
   lifetime: string;
 }
@@ -67,7 +69,7 @@ export function renderMail(kind: MailKind, data: MailData, link: LinkFacts | nul
         `${d.organisationName} has made you a Stavemark account. It is where you will find your mock-exam results, your teacher's comments and how your technique is coming along over the year.`,
         `To begin, choose a password of your own (at least 12 characters):`,
         { link, label: 'Choose my password' },
-        `The link works once, for ${link.lifetime}. If it has run out, use "Forgot your password?" on the sign-in page and we will send a fresh one.`,
+        `The link works once, for ${link.lifetime}. If it has run out, ask for a fresh one here: ${link.forgotUrl}`,
         `If you were not expecting this, you can simply ignore it: nothing happens until the link is used.`,
         `With best wishes,\n${d.organisationName}`,
       ]);

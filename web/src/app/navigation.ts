@@ -13,6 +13,8 @@ export interface NavItem {
 export const navItems: readonly NavItem[] = [
   { to: paths.today.href(), label: 'Today', roles: paths.today.roles, end: true },
   { to: paths.people.href(), label: 'People', roles: paths.people.roles },
+  { to: paths.classes.href(), label: 'Classes', roles: paths.classes.roles },
+  { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },
 ];
 
 export function navItemsFor(roles: readonly Role[]): NavItem[] {

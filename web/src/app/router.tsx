@@ -18,6 +18,22 @@ export const routes: RouteObject[] = [
       Component: (await import('@/features/auth/pages/SignInPage')).SignInPage,
     }),
   },
+  // Public pages behind e-mailed links: no sign-in (the person has no password yet).
+  ...(
+    [
+      [paths.accountWelcome.path, () => import('@/features/account/pages/SetPasswordPage').then((m) => <m.SetPasswordPage purpose="invitation" />)],
+      [paths.resetPassword.path, () => import('@/features/account/pages/SetPasswordPage').then((m) => <m.SetPasswordPage purpose="password_reset" />)],
+      [paths.forgotPassword.path, () => import('@/features/account/pages/ForgotPasswordPage').then((m) => <m.ForgotPasswordPage />)],
+      [paths.consent.path, () => import('@/features/account/pages/ConsentPage').then((m) => <m.ConsentPage />)],
+    ] as const
+  ).map(
+    ([path, load]): RouteObject => ({
+      path,
+      errorElement: <RouteError />,
+      hydrateFallbackElement: <PageLoading />,
+      lazy: async () => ({ element: await load() }),
+    }),
+  ),
   {
     element: (
       <RequireAuth>
@@ -45,6 +61,27 @@ export const routes: RouteObject[] = [
               </RequireAuth>
             ),
           };
+        },
+      },
+      {
+        path: paths.classes.path,
+        lazy: async () => {
+          const { ClassesPage } = await import('@/features/classes/pages/ClassesPage');
+          return { element: <RequireAuth roles={paths.classes.roles}><ClassesPage /></RequireAuth> };
+        },
+      },
+      {
+        path: paths.classDetail.path,
+        lazy: async () => {
+          const { ClassDetailPage } = await import('@/features/classes/pages/ClassDetailPage');
+          return { element: <RequireAuth roles={paths.classDetail.roles}><ClassDetailPage /></RequireAuth> };
+        },
+      },
+      {
+        path: paths.outbox.path,
+        lazy: async () => {
+          const { OutboxPage } = await import('@/features/outbox/pages/OutboxPage');
+          return { element: <RequireAuth roles={paths.outbox.roles}><OutboxPage /></RequireAuth> };
         },
       },
       { path: '*', element: <NotFoundPage /> },
