@@ -12,9 +12,10 @@ describe('sign-in errors', () => {
   });
 
   it('a wrong password shows the API message in an alert and stays on sign-in', async () => {
-    const answer = s.page.waitForResponse((r) => r.url().endsWith('/api/auth/login'));
-    await fillSignIn(s.page, DEMO.teacher, 'not-the-password');
-    const response = await answer;
+    const [response] = await Promise.all([
+      s.page.waitForResponse((r) => r.url().endsWith('/api/auth/login')),
+      fillSignIn(s.page, DEMO.teacher, 'not-the-password'),
+    ]);
     expect(response.status()).toBe(401);
     const body = (await response.json()) as { message: string };
 

@@ -9,6 +9,8 @@ const baseUrl = fromEnv ?? 'http://localhost:3000';
 
 // Browser journeys against a running Stavemark (npm start): one file at a time, one browser each.
 export default defineConfig({
+  // The journeys read the navigation table from the app's source (src/app/navigation.ts).
+  resolve: { alias: { '@': new URL('../src', import.meta.url).pathname } },
   test: {
     root: new URL('.', import.meta.url).pathname,
     include: ['**/*.e2e.test.ts'],

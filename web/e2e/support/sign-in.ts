@@ -25,11 +25,13 @@ export async function signIn(
   email: string,
   password = DEMO_PASSWORD,
 ): Promise<AuthSession> {
-  const answer = page.waitForResponse(
-    (r) => r.url().endsWith('/api/auth/login') && r.request().method() === 'POST',
-  );
-  await fillSignIn(page, email, password);
-  const response = await answer;
+  // Together, so a failed page load does not leave the wait for the answer dangling.
+  const [response] = await Promise.all([
+    page.waitForResponse(
+      (r) => r.url().endsWith('/api/auth/login') && r.request().method() === 'POST',
+    ),
+    fillSignIn(page, email, password),
+  ]);
   if (response.status() !== 200) {
     throw new Error(`Sign-in as ${email} answered ${response.status()}: ${await response.text()}`);
   }
