@@ -18,6 +18,7 @@ import { InvitationsModule } from './invitations/invitations.module.js';
 import { ClassesModule } from './classes/classes.module.js';
 import { StudentsModule } from './students/students.module.js';
 import { OutboxModule } from './outbox/outbox.module.js';
+import { SittingsModule } from './sittings/sittings.module.js';
 
 @Module({
   imports: [
@@ -44,6 +45,7 @@ import { OutboxModule } from './outbox/outbox.module.js';
     ClassesModule,
     StudentsModule,
     OutboxModule.forEnvironment(),
+    SittingsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

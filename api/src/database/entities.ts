@@ -16,6 +16,13 @@ import { RequirementList } from '../requirement-lists/entities/requirement-list.
 import { StudentFingering } from '../fingerings/entities/student-fingering.entity.js';
 import { OutboundMail } from '../mail/entities/outbound-mail.entity.js';
 import { AccountToken } from '../invitations/entities/account-token.entity.js';
+import { BandPolicyVersion } from '../sittings/entities/band-policy.entity.js';
+import { AccessArrangement } from '../sittings/entities/access-arrangement.entity.js';
+import { Sitting } from '../sittings/entities/sitting.entity.js';
+import { SittingPaper } from '../sittings/entities/sitting-paper.entity.js';
+import { SittingExaminer } from '../sittings/entities/sitting-examiner.entity.js';
+import { Slot } from '../sittings/entities/slot.entity.js';
+import { SittingMail } from '../sittings/entities/sitting-mail.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -37,4 +44,11 @@ export const entities = [
   StudentFingering,
   OutboundMail,
   AccountToken,
+  BandPolicyVersion,
+  AccessArrangement,
+  Sitting,
+  SittingPaper,
+  SittingExaminer,
+  Slot,
+  SittingMail,
 ];

@@ -3,6 +3,7 @@ import type { EntityManager } from 'typeorm';
 import type { Role } from '@stavemark/shared';
 import { hashPassword } from '../auth/passwords.js';
 import { seedStarterLibrary } from '../rubrics/starter-library.js';
+import { seedDemoSittings } from '../sittings/demo-sittings.js';
 
 export const DEMO_PASSWORD = 'stavemark-demo';
 
@@ -145,5 +146,6 @@ export async function seedDemo(em: EntityManager, data: DemoSchool, today: strin
   const organisationId = await seedOrganisation(em, data, today, hash);
   for (const other of data.otherOrganisations) await seedOrganisation(em, other, today, hash);
   await seedStarterLibrary(em, organisationId);
+  await seedDemoSittings(em, organisationId, today);
   return { organisationId };
 }

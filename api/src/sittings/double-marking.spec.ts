@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { allocateSecondMarkers, pairKey, spreadIndices, type DoubleMarkSlot } from './double-marking.js';
 
-const none = new Set<string>();
 const slot = (id: string, primaryId: string | null, teachers: string[] = [], busy: string[] = []): DoubleMarkSlot => ({
   id,
   primaryId,
