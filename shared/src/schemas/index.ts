@@ -8,3 +8,4 @@ export * from './fingerings.js';
 export * from './classes.js';
 export * from './invitations.js';
 export * from './sittings.js';
+export * from './marking.js';
