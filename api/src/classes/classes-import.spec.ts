@@ -98,7 +98,7 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     expect(preview.body.counts).toEqual({ new: 4, updated: 1, unchanged: 0, error: 1 });
     const bad = preview.body.rows.find((r: { status: string }) => r.status === 'error');
     expect(bad).toMatchObject({ line: 4, pupilNumber: 'KL2103', name: 'Juniper Calloway-Reyes' });
-    expect(bad.errors).toEqual(['Date of birth “2017-02-30” is not a date written YYYY-MM-DD (for example 2016-03-08).']);
+    expect(bad.errors).toEqual(['Date of birth “2017-02-30” is not a real date: check the day and the month.']);
 
     const applied = await upload(teacher, file, false);
     expect(applied.status).toBe(400);

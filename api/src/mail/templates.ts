@@ -46,7 +46,7 @@ function compose(subject: string, paragraphs: (string | { link: LinkFacts; label
       typeof p === 'string'
         ? `<p style="margin:0 0 16px">${escapeHtml(p).replace(/\n/g, '<br>')}</p>`
         : `<p style="margin:0 0 16px"><a href="${escapeHtml(p.link.url)}" style="display:inline-block;padding:10px 18px;background:#1d4f91;color:#ffffff;text-decoration:none;border-radius:4px">${escapeHtml(p.label)}</a></p>` +
-          `<p style="margin:0 0 16px;font-size:13px;color:#4a4f57">If the button does not work, copy this address into your browser:<br>${escapeHtml(p.link.url)}</p>`,
+          `<p style="margin:0 0 16px;font-size:13px;color:#4a4f57;word-break:break-all">If the button does not work, copy this address into your browser:<br>${escapeHtml(p.link.url)}</p>`,
     )
     .join('\n');
   const html = `<!doctype html>

@@ -99,8 +99,10 @@ export function checkRecord(rec: CsvRecord, importDate: string): RowCheck {
   let dateOfBirth = '';
   let minor = false;
   if (!dobText) errors.push('Date of birth is empty.');
-  else if (!isoDate(dobText)) {
-    errors.push(`Date of birth “${dobText}” is not a date written YYYY-MM-DD (for example 2016-03-08).`);
+  else if (!/^\d{4}-\d{2}-\d{2}$/.test(dobText)) {
+    errors.push(`Date of birth “${dobText}” is not written YYYY-MM-DD (for example 2016-03-08).`);
+  } else if (!isoDate(dobText)) {
+    errors.push(`Date of birth “${dobText}” is not a real date: check the day and the month.`);
   } else if (dobText > importDate) {
     errors.push(`Date of birth ${dobText} is after today (${importDate}).`);
   } else if (dobText < '1900-01-01') {

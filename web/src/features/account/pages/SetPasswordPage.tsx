@@ -65,7 +65,7 @@ export function SetPasswordPage({ purpose }: { purpose: 'invitation' | 'password
       ) : (
         <form onSubmit={onSubmit} noValidate className="sm-form" aria-labelledby={`${id}-lead`}>
           <p id={`${id}-lead`}>
-            {purpose === 'invitation' ? `Hello ${info.data?.displayName}. ` : `Hello ${info.data?.displayName}. `}
+            {`Hello ${info.data?.displayName}. `}
             {purpose === 'invitation'
               ? `Choose a password for your account${info.data?.organisationName ? ` at ${info.data.organisationName}` : ''}.`
               : 'Choose a new password; you will be signed out everywhere else.'}
@@ -84,6 +84,7 @@ export function SetPasswordPage({ purpose }: { purpose: 'invitation' | 'password
                   onBlur={field.onBlur}
                   feedback={false}
                   toggleMask
+                  className="sm-password-full"
                   autoComplete="new-password"
                   invalid={!!errors.password}
                   aria-describedby={`${id}-password-hint ${id}-password-error`}
@@ -108,6 +109,7 @@ export function SetPasswordPage({ purpose }: { purpose: 'invitation' | 'password
                   onBlur={field.onBlur}
                   feedback={false}
                   toggleMask
+                  className="sm-password-full"
                   autoComplete="new-password"
                   invalid={!!errors.confirm}
                   aria-describedby={`${id}-confirm-error`}

@@ -28,7 +28,7 @@ function report(overrides: Partial<ImportReport> = {}): ImportReport {
         name: 'Juniper Calloway-Reyes',
         classCode: 'TUE-BEG',
         changes: [],
-        errors: ['Date of birth “2017-02-30” is not a date written YYYY-MM-DD (for example 2016-03-08).'],
+        errors: ['Date of birth “2017-02-30” is not a real date: check the day and the month.'],
       },
     ],
     newClassCodes: ['TUE-BEG'],

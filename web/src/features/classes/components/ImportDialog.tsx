@@ -108,13 +108,13 @@ export function ImportDialog({ visible, onHide }: Props) {
       <p className="sm-muted">
         Nothing is imported until you have seen the check and confirmed it; a file with any error imports nothing. New students with an e-mail get an
         invitation, and guardians of children a notice.{' '}
-        <Button
+        <button
           type="button"
-          link
-          className="p-0"
-          label="Download the template"
+          className="sm-link-button"
           onClick={() => void downloadFile('/classes/import/template', 'class-list-template.csv').catch(() => notify({ severity: 'error', summary: 'The template could not be downloaded.' }))}
-        />
+        >
+          Download the template
+        </button>
       </p>
 
       <div className="sm-import-file">

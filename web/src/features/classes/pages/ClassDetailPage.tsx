@@ -38,7 +38,9 @@ export function ClassDetailPage() {
     s.guardians.length ? (
       s.guardians.map((g: GuardianView) => (
         <span key={g.email} className="sm-guardian">
-          {g.name} <small>{g.email}</small>
+          {g.name}
+          <br />
+          <small>{g.email}</small>
           <br />
           <small>
             {consentText(g.consentResultsEmail, 'Results by e-mail')} · {consentText(g.consentRecordings, 'Recordings')}
@@ -149,7 +151,7 @@ export function ClassDetailPage() {
         <DataTable value={c.members} dataKey="id" size="small" aria-label="Students in the class" emptyMessage="No students in this class yet.">
           <Column field="pupilNumber" header="Pupil number" />
           <Column header="Name" body={nameBody} />
-          <Column field="dateOfBirth" header="Date of birth" />
+          <Column field="dateOfBirth" header="Date of birth" style={{ whiteSpace: 'nowrap' }} />
           <Column field="grade" header="Grade" />
           <Column header="Guardians" body={guardiansBody} />
           <Column header="Classes" body={(s: StudentRow) => s.classCodes.join(', ')} />

@@ -7,7 +7,6 @@ import { Alert } from '@/components/Alert';
 import { ErrorMessage } from '@/components/ErrorMessage';
 import { ApiError } from '@/lib/api-client';
 import { activeMembership, useCurrentUser } from '@/lib/auth';
-import { formatDateInZone } from '@/lib/format';
 import { useOutbox } from '../api/get-outbox';
 import '../../classes/classes.css';
 
@@ -16,6 +15,9 @@ const KIND: Record<OutboxItem['kind'], string> = {
   guardian_notice: 'Guardian notice',
   password_reset: 'Password reset',
 };
+
+const formatReceived = (iso: string, timeZone: string) =>
+  new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' }).format(new Date(iso));
 
 /** The text part with its web addresses as links, so a link in a caught invitation can be followed. */
 function TextWithLinks({ text }: { text: string }) {
@@ -70,11 +72,20 @@ export function OutboxPage() {
             rows={20}
             emptyMessage={outbox.isPending ? 'Loading…' : 'No e-mail yet.'}
           >
-            <Column header="Received" body={(m: OutboxItem) => formatDateInZone(m.receivedAt, timeZone)} />
-            <Column header="To" body={(m: OutboxItem) => m.to.join(', ')} />
-            <Column field="subject" header="Subject" />
-            <Column header="Kind" body={(m: OutboxItem) => <Tag value={KIND[m.kind]} severity="info" />} />
-            <Column header="Status" body={(m: OutboxItem) => <Tag value={m.status} severity={m.status === 'sent' ? 'success' : 'warning'} />} />
+            <Column header="Received" body={(m: OutboxItem) => formatReceived(m.receivedAt, timeZone)} style={{ width: '8rem' }} />
+            <Column
+              header="E-mail"
+              body={(m: OutboxItem) => (
+                <>
+                  <span className="sm-outbox-subject">{m.subject}</span>
+                  <small className="sm-muted">To {m.to.join(', ')}</small>
+                  <span className="sm-outbox-tags">
+                    <Tag value={KIND[m.kind]} severity="info" />
+                    <Tag value={m.status} severity={m.status === 'sent' ? 'success' : 'warning'} />
+                  </span>
+                </>
+              )}
+            />
           </DataTable>
         </div>
         {shown && (
