@@ -132,7 +132,8 @@ fi
 timed "npm packages" ensure_npm_packages || die "npm packages could not be installed"
 
 if wants browser && [ ! -x "$CHROMIUM" ]; then
-  timed "install chromium" apt_install chromium || true
+  # In a subshell: a failed install marks the browser suite, it does not end the whole run.
+  timed "install chromium" bash -c "source '$STAVEMARK_SCRIPTS/lib/env.sh' && apt_install chromium" || true
   [ -x "$CHROMIUM" ] || not_run browser "Debian's chromium could not be installed"
 fi
 
