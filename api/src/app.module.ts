@@ -19,6 +19,7 @@ import { ClassesModule } from './classes/classes.module.js';
 import { StudentsModule } from './students/students.module.js';
 import { OutboxModule } from './outbox/outbox.module.js';
 import { SittingsModule } from './sittings/sittings.module.js';
+import { MarkingModule } from './marking/marking.module.js';
 
 @Module({
   imports: [
@@ -46,6 +47,7 @@ import { SittingsModule } from './sittings/sittings.module.js';
     StudentsModule,
     OutboxModule.forEnvironment(),
     SittingsModule,
+    MarkingModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

@@ -23,6 +23,10 @@ import { SittingPaper } from '../sittings/entities/sitting-paper.entity.js';
 import { SittingExaminer } from '../sittings/entities/sitting-examiner.entity.js';
 import { Slot } from '../sittings/entities/slot.entity.js';
 import { SittingMail } from '../sittings/entities/sitting-mail.entity.js';
+import { SlotDraw } from '../marking/entities/slot-draw.entity.js';
+import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
+import { MarkCell } from '../marking/entities/mark-cell.entity.js';
+import { MarkChange } from '../marking/entities/mark-change.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -51,4 +55,8 @@ export const entities = [
   SittingExaminer,
   Slot,
   SittingMail,
+  SlotDraw,
+  MarkSheet,
+  MarkCell,
+  MarkChange,
 ];

@@ -1,0 +1,808 @@
+import { randomBytes } from 'node:crypto';
+import { isDeepStrictEqual } from 'node:util';
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Not, Repository, type EntityManager } from 'typeorm';
+import {
+  DrawError,
+  drawRequests,
+  isCountedKind,
+  normaliseKeyName,
+  parseCell,
+  type CellValue,
+  type ChangeRequestInput,
+  type CorrectCellInput,
+  type DeskRequest,
+  type DeskView,
+  type MarkingSittingSummary,
+  type Request,
+  type SaveCellInput,
+  type SaveResult,
+  type SlotOutcome,
+  type SubmitSheetInput,
+} from '@stavemark/shared';
+import { AuditService } from '../audit/audit.service.js';
+import { localDate, now } from '../common/clock.js';
+import { conflict, DomainError, ErrorCode, invalid, notFound } from '../common/errors.js';
+import { RequestContext, type Caller } from '../common/request-context.js';
+import { ScopedRepository } from '../common/scoped-repository.js';
+import { StudentFingering } from '../fingerings/entities/student-fingering.entity.js';
+import { toFingeringView } from '../fingerings/fingerings.mapper.js';
+import { Organisation } from '../organisations/entities/organisation.entity.js';
+import { toLineView } from '../requirement-lists/requirement-lists.mapper.js';
+import { RubricVersion } from '../rubrics/entities/rubric-version.entity.js';
+import { toCriterion } from '../rubrics/rubrics.mapper.js';
+import { AccessArrangement } from '../sittings/entities/access-arrangement.entity.js';
+import { Slot } from '../sittings/entities/slot.entity.js';
+import { SittingsService } from '../sittings/sittings.service.js';
+import { Person } from '../users/entities/person.entity.js';
+import { MarkCell } from './entities/mark-cell.entity.js';
+import { MarkChange } from './entities/mark-change.entity.js';
+import { MarkSheet } from './entities/mark-sheet.entity.js';
+import { SlotDraw, type RequestChange } from './entities/slot-draw.entity.js';
+import { toSheetView } from './marking.mapper.js';
+
+/** A conflict on one cell: answered 409 with both values, after the change is recorded. */
+export class CellConflict extends DomainError {
+  constructor(readonly result: Extract<SaveResult, { status: 'conflict' }>) {
+    super(
+      ErrorCode.Conflict,
+      'This cell was changed elsewhere since you last saw it: choose which value to keep.',
+      { kind: 'cell_conflict', ...result },
+    );
+  }
+}
+
+interface SlotFacts {
+  slot: Slot;
+  role: 'first' | 'second';
+}
+
+const TENSION = /tension|freedom/i;
+
+/**
+ * The marking desk (issue 6; design.md §4.4, §7): the draw, the examiner's own mark sheet saved
+ * cell by cell, submit and corrections, and blind second marking. Slots are reached only by
+ * their examiners: any other caller finds no slot (404).
+ */
+@Injectable()
+export class MarkingService {
+  private readonly slots: ScopedRepository<Slot>;
+  private readonly draws: ScopedRepository<SlotDraw>;
+  private readonly sheets: ScopedRepository<MarkSheet>;
+  private readonly cells: ScopedRepository<MarkCell>;
+  private readonly arrangements: ScopedRepository<AccessArrangement>;
+  private readonly fingerings: ScopedRepository<StudentFingering>;
+  private readonly rubricVersions: ScopedRepository<RubricVersion>;
+
+  constructor(
+    @InjectRepository(Slot) slotRepo: Repository<Slot>,
+    @InjectRepository(SlotDraw) drawRepo: Repository<SlotDraw>,
+    @InjectRepository(MarkSheet) sheetRepo: Repository<MarkSheet>,
+    @InjectRepository(MarkCell) cellRepo: Repository<MarkCell>,
+    @InjectRepository(AccessArrangement) arrangementRepo: Repository<AccessArrangement>,
+    @InjectRepository(StudentFingering) fingeringRepo: Repository<StudentFingering>,
+    @InjectRepository(RubricVersion) rubricRepo: Repository<RubricVersion>,
+    @InjectDataSource() private readonly db: DataSource,
+    private readonly audit: AuditService,
+    private readonly sittings: SittingsService,
+  ) {
+    this.slots = new ScopedRepository(slotRepo, 'slot');
+    this.draws = new ScopedRepository(drawRepo, 'draw');
+    this.sheets = new ScopedRepository(sheetRepo, 'mark sheet');
+    this.cells = new ScopedRepository(cellRepo, 'mark sheet cell');
+    this.arrangements = new ScopedRepository(arrangementRepo, 'access arrangement');
+    this.fingerings = new ScopedRepository(fingeringRepo, 'fingering');
+    this.rubricVersions = new ScopedRepository(rubricRepo, 'rubric version');
+  }
+
+  // ---------- access ----------
+
+  /** A slot the caller marks (first or second examiner) in a sitting past its draft, or 404. */
+  private async markedSlot(em: EntityManager, slotId: string): Promise<SlotFacts> {
+    const caller = RequestContext.requireCaller();
+    const slot = await this.slots.withManager(em).getOne({
+      where: { id: slotId },
+      relations: {
+        sitting: true,
+        student: true,
+        paper: { listVersion: { lines: { rubricVersion: true } } },
+      },
+    });
+    const me = caller.membershipId;
+    const role =
+      slot.examinerMembershipId === me
+        ? 'first'
+        : slot.secondExaminerMembershipId === me
+          ? 'second'
+          : null;
+    if (!role || !caller.roles.includes('examiner') || slot.sitting!.status === 'draft')
+      throw notFound('slot');
+    return { slot, role };
+  }
+
+  /** The caller's own sheet, locked for share (saves run side by side; submit takes it exclusively). */
+  private async ownSheet(
+    em: EntityManager,
+    sheetId: string,
+    lock: 'pessimistic_read' | 'pessimistic_write',
+  ): Promise<MarkSheet> {
+    const caller = RequestContext.requireCaller();
+    const sheet = await this.sheets
+      .withManager(em)
+      .getOne({ where: { id: sheetId }, lock: { mode: lock } });
+    if (sheet.examinerMembershipId !== caller.membershipId || !caller.roles.includes('examiner'))
+      throw notFound('mark sheet');
+    return sheet;
+  }
+
+  // ---------- today's marking ----------
+
+  async myMarking(): Promise<MarkingSittingSummary[]> {
+    const caller = RequestContext.requireCaller();
+    const org = await this.db
+      .getRepository(Organisation)
+      .findOneByOrFail({ id: caller.organisationId });
+    const today = localDate(now(), org.timeZone);
+    const slots = await this.slots
+      .qb('x')
+      .innerJoinAndSelect('x.sitting', 's')
+      .innerJoinAndSelect('x.student', 'st')
+      .innerJoinAndSelect('x.paper', 'p')
+      .innerJoinAndSelect('p.listVersion', 'lv')
+      .andWhere('s.date = :today', { today })
+      .andWhere(`s.status IN ('scheduled', 'in_progress', 'marking_closed')`)
+      .andWhere('(x.examinerMembershipId = :me OR x.secondExaminerMembershipId = :me)', {
+        me: caller.membershipId,
+      })
+      .orderBy('s.startsAt', 'ASC')
+      .addOrderBy('x.position', 'ASC')
+      .getMany();
+    const sheets = slots.length
+      ? await this.sheets.find({
+          where: { slotId: In(slots.map((s) => s.id)), examinerMembershipId: caller.membershipId },
+        })
+      : [];
+    const sheetOf = new Map(sheets.map((s) => [s.slotId, s]));
+    const out = new Map<string, MarkingSittingSummary>();
+    for (const x of slots) {
+      const s = x.sitting!;
+      const entry = out.get(s.id) ?? {
+        id: s.id,
+        title: s.title,
+        date: s.date,
+        room: s.room,
+        status: s.status,
+        slots: [],
+      };
+      entry.slots.push({
+        id: x.id,
+        position: x.position,
+        startTime: clock(x.startsAt, s.timeZone),
+        endTime: clock(x.endsAt, s.timeZone),
+        candidate: `${x.student!.givenName} ${x.student!.familyName}`,
+        listName: x.paper!.listVersion!.name,
+        role: x.examinerMembershipId === caller.membershipId ? 'first' : 'second',
+        outcome: x.outcome,
+        sheetStatus: sheetOf.get(x.id)?.status ?? null,
+      });
+      out.set(s.id, entry);
+    }
+    return [...out.values()];
+  }
+
+  // ---------- the draw and the desk ----------
+
+  desk(slotId: string): Promise<DeskView> {
+    return this.db.transaction(async (em) => this.deskView(em, await this.markedSlot(em, slotId)));
+  }
+
+  /** Starts the slot for the caller: draws once per slot (seeded, audited) and opens their sheet. */
+  async start(slotId: string): Promise<DeskView> {
+    const caller = RequestContext.requireCaller();
+    return this.db.transaction(async (em) => {
+      const facts = await this.markedSlot(em, slotId);
+      const { slot } = facts;
+      if (slot.sitting!.status !== 'in_progress') {
+        throw conflict(
+          slot.sitting!.status === 'scheduled'
+            ? 'Start the sitting first: it is still scheduled.'
+            : 'Marking of this sitting is closed.',
+        );
+      }
+      // One draw per slot even when both examiners press start at once.
+      await em.query(`SELECT id FROM slots WHERE id = $1 FOR UPDATE`, [slot.id]);
+      let draw = await this.draws.withManager(em).findOne({ where: { slotId } });
+      if (!draw) draw = await this.makeDraw(em, slot);
+      const sheets = this.sheets.withManager(em);
+      if (
+        !(await sheets.findOne({ where: { slotId, examinerMembershipId: caller.membershipId } }))
+      ) {
+        const sheet = await sheets.save(
+          sheets.create({
+            slotId,
+            examinerMembershipId: caller.membershipId,
+            role: facts.role,
+            status: 'draft',
+            submittedAt: null,
+          }),
+        );
+        await this.audit.record(
+          {
+            action: 'mark_sheet.started',
+            entity: 'mark_sheet',
+            entityId: sheet.id,
+            after: { slotId, role: facts.role },
+          },
+          em,
+        );
+      }
+      return this.deskView(em, facts);
+    });
+  }
+
+  private async makeDraw(em: EntityManager, slot: Slot): Promise<SlotDraw> {
+    const caller = RequestContext.requireCaller();
+    const version = slot.paper!.listVersion!;
+    const lines = [...(version.lines ?? [])]
+      .sort((a, b) => a.position - b.position)
+      .map(toLineView);
+    const arrangement = await this.arrangements
+      .withManager(em)
+      .findOne({ where: { studentId: slot.studentId } });
+    const last = await this.draws
+      .withManager(em)
+      .findOne({
+        where: { studentId: slot.studentId, slotId: Not(slot.id) },
+        order: { drawnAt: 'DESC' },
+      });
+    const seed = randomBytes(8).toString('hex');
+    let result;
+    try {
+      result = drawRequests({ lines }, version.selectionRule, seed, {
+        previous: last?.requests ?? [],
+        substitutions: arrangement?.substitutions ?? [],
+      });
+    } catch (e) {
+      if (e instanceof DrawError) throw invalid(`The draw could not be made: ${e.message}`);
+      throw e;
+    }
+    const repo = this.draws.withManager(em);
+    const draw = await repo.save(
+      repo.create({
+        slotId: slot.id,
+        studentId: slot.studentId,
+        seed,
+        algorithm: result.algorithm,
+        drawn: result.requests,
+        requests: result.requests,
+        changes: [],
+        repeatsOfPrevious: result.repeatsOfPrevious,
+        drawnByPersonId: caller.personId,
+      }),
+    );
+    await this.audit.record(
+      {
+        action: 'slot.drawn',
+        entity: 'slot',
+        entityId: slot.id,
+        after: {
+          seed,
+          algorithm: result.algorithm,
+          listVersionId: version.id,
+          previousSlotId: last?.slotId ?? null,
+          substitutions: arrangement?.substitutions ?? [],
+          requests: result.requests.length,
+        },
+      },
+      em,
+    );
+    return draw;
+  }
+
+  /** The examiner changes a drawn request (a key, the hands…); the change and reason are kept. */
+  async changeRequest(slotId: string, input: ChangeRequestInput): Promise<DeskView> {
+    const caller = RequestContext.requireCaller();
+    return this.db.transaction(async (em) => {
+      const facts = await this.markedSlot(em, slotId);
+      const repo = this.draws.withManager(em);
+      const draw = await repo.getOne({ where: { slotId }, lock: { mode: 'pessimistic_write' } });
+      const submitted = await this.sheets
+        .withManager(em)
+        .count({ where: { slotId, status: 'submitted' } });
+      if (submitted > 0)
+        throw conflict('A sheet of this slot is submitted: its requests can no longer change.');
+      const current = draw.requests[input.index];
+      if (!current)
+        throw invalid(`There is no request ${input.index + 1} in this draw.`, [
+          { path: 'index', message: 'not in the draw' },
+        ]);
+      const { index: _i, reason, ...fields } = input;
+      const patch: Partial<Request> = {};
+      for (const [k, v] of Object.entries(fields) as [keyof typeof fields, unknown][])
+        if (v !== undefined) (patch as Record<string, unknown>)[k] = v;
+      if (Object.keys(patch).length === 0) throw invalid('Nothing to change.');
+      if (patch.key !== undefined && !isCountedKind(current.kind))
+        throw invalid('A passage has no key to change.', [
+          { path: 'key', message: 'not for this kind' },
+        ]);
+      if (patch.hands !== undefined && patch.hands !== 'HT') patch.motion = null;
+      if (patch.hands === 'HT' && current.motion === null && patch.motion === undefined)
+        patch.motion = 'similar';
+      const before = Object.fromEntries(
+        Object.keys(patch).map((k) => [k, current[k as keyof Request]]),
+      ) as Partial<Request>;
+      const person = await em.getRepository(Person).findOneByOrFail({ id: caller.personId });
+      const change: RequestChange = {
+        index: input.index,
+        reason,
+        byPersonId: caller.personId,
+        byName: person.displayName,
+        at: now().toISOString(),
+        before,
+        after: patch,
+      };
+      draw.requests = draw.requests.map((r, i) => (i === input.index ? { ...r, ...patch } : r));
+      draw.changes = [...draw.changes, change];
+      await repo.save(draw);
+      await this.audit.record(
+        {
+          action: 'slot.request_changed',
+          entity: 'slot',
+          entityId: slotId,
+          before: { index: input.index, ...before },
+          after: { index: input.index, ...patch, reason },
+        },
+        em,
+      );
+      return this.deskView(em, facts);
+    });
+  }
+
+  private async deskView(em: EntityManager, { slot, role }: SlotFacts): Promise<DeskView> {
+    const caller = RequestContext.requireCaller();
+    const sitting = slot.sitting!;
+    const [draw, person, arrangement, sheets] = await Promise.all([
+      this.draws.withManager(em).findOne({ where: { slotId: slot.id } }),
+      em.getRepository(Person).findOneByOrFail({ id: caller.personId }),
+      this.arrangements.withManager(em).findOne({ where: { studentId: slot.studentId } }),
+      this.sheets
+        .withManager(em)
+        .find({ where: { slotId: slot.id }, relations: { examiner: { person: true } } }),
+    ]);
+    const mine = sheets.find((s) => s.examinerMembershipId === caller.membershipId) ?? null;
+    const allSubmitted =
+      sheets.length > 0 &&
+      sheets.every((s) => s.status === 'submitted') &&
+      (!slot.secondExaminerMembershipId || sheets.length === 2);
+    const other = allSubmitted ? (sheets.find((s) => s !== mine) ?? null) : null;
+    const cellsOf = async (s: MarkSheet | null) =>
+      s
+        ? this.cells.withManager(em).find({ where: { sheetId: s.id }, order: { cell: 'ASC' } })
+        : [];
+    return {
+      slot: {
+        id: slot.id,
+        sittingId: sitting.id,
+        sittingTitle: sitting.title,
+        sittingStatus: sitting.status,
+        room: sitting.room,
+        startsAt: slot.startsAt.toISOString(),
+        endsAt: slot.endsAt.toISOString(),
+        minutes: slot.minutes,
+        writeUpGapMinutes: sitting.writeUpGapMinutes,
+        outcome: slot.outcome,
+        candidate: {
+          name: `${slot.student!.givenName} ${slot.student!.familyName}`,
+          pupilNumber: slot.student!.pupilNumber,
+          grade: slot.student!.grade,
+        },
+        listName: slot.paper!.listVersion!.name,
+        extraTimePercent: arrangement?.extraTimePercent ?? 0,
+      },
+      role,
+      noteNames: person.noteNames,
+      draw: draw
+        ? {
+            seed: draw.seed,
+            algorithm: draw.algorithm,
+            drawnAt: draw.drawnAt.toISOString(),
+            repeatsOfPrevious: draw.repeatsOfPrevious,
+          }
+        : null,
+      requests: draw ? await this.deskRequests(em, slot, draw) : [],
+      sheet: mine ? toSheetView(mine, await cellsOf(mine)) : null,
+      otherSheet: other ? toSheetView(other, await cellsOf(other)) : null,
+    };
+  }
+
+  private async deskRequests(
+    em: EntityManager,
+    slot: Slot,
+    draw: SlotDraw,
+  ): Promise<DeskRequest[]> {
+    const rubricIds = [...new Set(draw.requests.map((r) => r.rubricVersionId))];
+    const rubrics = await this.rubricVersions
+      .withManager(em)
+      .find({ where: { id: In(rubricIds) }, relations: { criteria: true } });
+    const rubricOf = new Map(rubrics.map((r) => [r.id, r]));
+    const fingerings = await this.fingerings
+      .withManager(em)
+      .find({ where: { studentId: slot.studentId }, relations: { setBy: true } });
+    return draw.requests.map((r) => {
+      const rubric = rubricOf.get(r.rubricVersionId);
+      const criteria = [...(rubric?.criteria ?? [])]
+        .sort((a, b) => a.position - b.position)
+        .map((c) => ({ ...toCriterion(c), tension: TENSION.test(c.key) || TENSION.test(c.label) }));
+      const hands = r.hands === 'HT' ? ['RH', 'LH'] : [r.hands];
+      const key = r.key === null ? null : normaliseKeyName(r.key);
+      const mine = fingerings.filter(
+        (f) =>
+          f.kind === r.kind &&
+          f.key === key &&
+          (f.mode ?? null) === (r.mode ?? null) &&
+          (f.inversion ?? null) === (r.inversion ?? null) &&
+          hands.includes(f.hand),
+      );
+      // The current one per hand: the highest revision.
+      const current = hands
+        .map((h) => mine.filter((f) => f.hand === h).sort((a, b) => b.revision - a.revision)[0])
+        .filter((f): f is StudentFingering => f !== undefined)
+        .map(toFingeringView);
+      const change = [...draw.changes].reverse().find((c) => c.index === r.index) ?? null;
+      return {
+        ...r,
+        criteria,
+        rubricName: rubric?.name ?? 'Rubric',
+        fingerings: current,
+        change: change
+          ? { reason: change.reason, by: change.byName, at: change.at, before: change.before }
+          : null,
+      };
+    });
+  }
+
+  // ---------- saving cells ----------
+
+  /**
+   * One cell, once per change id (design.md §7). The change id is claimed first (INSERT … ON
+   * CONFLICT DO NOTHING), so a retry that races the original waits for it and then replays its
+   * result instead of applying the change twice. The cell row is locked, so two changes to the
+   * same cell are ordered; a save based on an older version of that cell is a conflict, unless
+   * it asks for the value the cell already holds.
+   */
+  async saveCell(sheetId: string, input: SaveCellInput): Promise<SaveResult> {
+    const result = await this.db.transaction(async (em) => {
+      const sheet = await this.ownSheet(em, sheetId, 'pessimistic_read');
+      const claimed = await this.claim(
+        em,
+        sheet,
+        input.changeId,
+        input.cell,
+        input.value,
+        input.baseVersion,
+      );
+      if (!claimed) return this.replay(em, sheet, input.changeId);
+      if (sheet.status === 'submitted') {
+        throw new DomainError(
+          ErrorCode.Conflict,
+          'This sheet is submitted: change it with a correction and a reason.',
+          { kind: 'submitted' },
+        );
+      }
+      await this.checkCell(em, sheet, input.cell, input.value);
+      return this.apply(
+        em,
+        sheet,
+        input.changeId,
+        input.cell,
+        input.value,
+        input.baseVersion,
+        'applied',
+      );
+    });
+    if (result.status === 'conflict') throw new CellConflict(result);
+    return result;
+  }
+
+  /** A later change to a submitted sheet: audited with the old and new values and the reason. */
+  async correct(sheetId: string, input: CorrectCellInput): Promise<SaveResult> {
+    return this.db.transaction(async (em) => {
+      const sheet = await this.ownSheet(em, sheetId, 'pessimistic_read');
+      if (sheet.status !== 'submitted')
+        throw conflict('This sheet is not submitted yet: save the cell as usual.');
+      const claimed = await this.claim(em, sheet, input.changeId, input.cell, input.value, -1);
+      if (!claimed) {
+        const replayed = await this.replay(em, sheet, input.changeId);
+        if (replayed.status === 'conflict') throw new CellConflict(replayed);
+        return replayed;
+      }
+      await this.checkCell(em, sheet, input.cell, input.value);
+      const before = await this.lockCell(em, sheet, input.cell, input.changeId);
+      const res = await this.apply(
+        em,
+        sheet,
+        input.changeId,
+        input.cell,
+        input.value,
+        before.version,
+        'correction',
+      );
+      await this.audit.record(
+        {
+          action: 'mark_sheet.corrected',
+          entity: 'mark_sheet',
+          entityId: sheet.id,
+          before: { cell: input.cell, value: before.value, version: before.version },
+          after: {
+            cell: input.cell,
+            value: input.value,
+            version: res.status === 'conflict' ? before.version : res.version,
+            reason: input.reason,
+          },
+        },
+        em,
+      );
+      return res;
+    });
+  }
+
+  /** Claims the change id; false when it was seen before (then its first result stands). */
+  private async claim(
+    em: EntityManager,
+    sheet: MarkSheet,
+    changeId: string,
+    cell: string,
+    value: CellValue,
+    baseVersion: number,
+  ): Promise<boolean> {
+    const rows = (await em.query(
+      `INSERT INTO mark_changes (change_id, sheet_id, cell, value, base_version, result, version)
+       VALUES ($1, $2, $3, $4::jsonb, $5, 'applied', 0) ON CONFLICT (change_id) DO NOTHING RETURNING change_id`,
+      [changeId, sheet.id, cell, JSON.stringify(value), baseVersion],
+    )) as unknown[];
+    return rows.length === 1;
+  }
+
+  private async replay(em: EntityManager, sheet: MarkSheet, changeId: string): Promise<SaveResult> {
+    const prior = await em.getRepository(MarkChange).findOneByOrFail({ changeId });
+    // A change id belongs to one sheet; reusing it elsewhere is a client bug, not a duplicate.
+    if (prior.sheetId !== sheet.id)
+      throw conflict('This change id was already used for another mark sheet.');
+    if (prior.result === 'conflict') {
+      return {
+        status: 'conflict',
+        cell: prior.cell,
+        changeId,
+        yours: prior.value,
+        theirs: prior.theirs,
+        version: prior.version,
+      };
+    }
+    return {
+      status: 'duplicate',
+      cell: prior.cell,
+      value: prior.value,
+      version: prior.version,
+      changeId,
+    };
+  }
+
+  /** Marks within the criterion's maximum, requests in the draw, criteria of the request's rubric. */
+  private async checkCell(
+    em: EntityManager,
+    sheet: MarkSheet,
+    cell: string,
+    value: CellValue,
+  ): Promise<void> {
+    const parsed = parseCell(cell)!;
+    if (parsed.request === null) return;
+    const draw = await this.draws.withManager(em).getOne({ where: { slotId: sheet.slotId } });
+    const request = draw.requests[parsed.request];
+    if (!request)
+      throw invalid(`There is no request ${parsed.request + 1} on this sheet.`, [
+        { path: 'cell', message: 'request not in the draw' },
+      ]);
+    if (parsed.kind !== 'mark') return;
+    const rubric = await this.rubricVersions
+      .withManager(em)
+      .getOne({ where: { id: request.rubricVersionId }, relations: { criteria: true } });
+    const criterion = rubric.criteria!.find((c) => c.key === parsed.part);
+    if (!criterion)
+      throw invalid(`“${parsed.part}” is not a criterion of ${rubric.name}.`, [
+        { path: 'cell', message: 'unknown criterion' },
+      ]);
+    if (typeof value === 'number' && value > criterion.maxMark) {
+      throw invalid(`${criterion.label} is marked out of ${criterion.maxMark}.`, [
+        { path: 'value', message: `at most ${criterion.maxMark}` },
+      ]);
+    }
+  }
+
+  /** The cell's row, created empty (version 0) when new, and locked until the transaction ends. */
+  private async lockCell(
+    em: EntityManager,
+    sheet: MarkSheet,
+    cell: string,
+    changeId: string,
+  ): Promise<{ version: number; value: CellValue }> {
+    await em.query(
+      `INSERT INTO mark_cells (organisation_id, sheet_id, cell, value, version, last_change_id)
+       VALUES ($1, $2, $3, 'null'::jsonb, 0, $4) ON CONFLICT (sheet_id, cell) DO NOTHING`,
+      [sheet.organisationId, sheet.id, cell, changeId],
+    );
+    const [row] = (await em.query(
+      `SELECT version, value FROM mark_cells WHERE sheet_id = $1 AND cell = $2 FOR UPDATE`,
+      [sheet.id, cell],
+    )) as { version: number; value: CellValue }[];
+    return row!;
+  }
+
+  private async apply(
+    em: EntityManager,
+    sheet: MarkSheet,
+    changeId: string,
+    cell: string,
+    value: CellValue,
+    baseVersion: number,
+    kind: 'applied' | 'correction',
+  ): Promise<SaveResult> {
+    const current = await this.lockCell(em, sheet, cell, changeId);
+    if (current.version !== baseVersion && !isDeepStrictEqual(current.value, value)) {
+      await em.query(
+        `UPDATE mark_changes SET result = 'conflict', version = $2, theirs = $3::jsonb WHERE change_id = $1`,
+        [changeId, current.version, JSON.stringify(current.value)],
+      );
+      return {
+        status: 'conflict',
+        cell,
+        changeId,
+        yours: value,
+        theirs: current.value,
+        version: current.version,
+      };
+    }
+    let version = current.version;
+    if (!isDeepStrictEqual(current.value, value) || current.version === 0) {
+      version = current.version + 1;
+      await em.query(
+        `UPDATE mark_cells SET value = $3::jsonb, version = $4, last_change_id = $5, updated_at = now() WHERE sheet_id = $1 AND cell = $2`,
+        [sheet.id, cell, JSON.stringify(value), version, changeId],
+      );
+    }
+    await em.query(`UPDATE mark_changes SET result = $2, version = $3 WHERE change_id = $1`, [
+      changeId,
+      kind,
+      version,
+    ]);
+    return { status: 'applied', cell, value, version, changeId };
+  }
+
+  // ---------- submit and reading sheets ----------
+
+  /**
+   * Submits the caller's sheet. The client sends its last change id: if that change has not
+   * reached the server, some saves are still on their way and the submit is refused. Marks are
+   * needed for every criterion of every request asked, unless the candidate was absent or withdrew.
+   */
+  async submit(sheetId: string, input: SubmitSheetInput): Promise<DeskView> {
+    const caller = RequestContext.requireCaller();
+    const prepared = await this.db.transaction(async (em) => {
+      const sheet = await this.ownSheet(em, sheetId, 'pessimistic_write');
+      if (sheet.status === 'submitted') return { sheet, outcome: null };
+      if (input.lastChangeId) {
+        const arrived = await em
+          .getRepository(MarkChange)
+          .findOneBy({ changeId: input.lastChangeId, sheetId: sheet.id });
+        if (!arrived)
+          throw new DomainError(
+            ErrorCode.Conflict,
+            'Some changes have not reached the server yet: wait until every change is saved.',
+            { kind: 'queue_not_empty' },
+          );
+      }
+      const cells = await this.cells.withManager(em).find({ where: { sheetId: sheet.id } });
+      const value = new Map(cells.map((c) => [c.cell, c.value]));
+      const outcome = value.get('outcome') as SlotOutcome | null | undefined;
+      if (!outcome)
+        throw invalid('Record the slot’s outcome before submitting.', [
+          { path: 'outcome', message: 'missing' },
+        ]);
+      const missing: { path: string; message: string }[] = [];
+      if (outcome === 'completed' || outcome === 'incomplete') {
+        const draw = await this.draws.withManager(em).getOne({ where: { slotId: sheet.slotId } });
+        const rubrics = await this.rubricVersions
+          .withManager(em)
+          .find({
+            where: { id: In([...new Set(draw.requests.map((r) => r.rubricVersionId))]) },
+            relations: { criteria: true },
+          });
+        for (const r of draw.requests) {
+          if (value.get(`asked:${r.index}`) === false) continue;
+          const rubric = rubrics.find((x) => x.id === r.rubricVersionId);
+          for (const c of rubric?.criteria ?? []) {
+            const v = value.get(`mark:${r.index}:${c.key}`);
+            if (typeof v !== 'number')
+              missing.push({
+                path: `mark:${r.index}:${c.key}`,
+                message: `Request ${r.index + 1}: ${c.label} has no mark.`,
+              });
+          }
+        }
+      }
+      if (missing.length)
+        throw invalid(
+          `${missing.length} mark(s) missing: mark them, or mark the request “not asked”.`,
+          missing,
+        );
+      return { sheet, outcome };
+    });
+    // The first examiner's outcome is the slot's; recorded before the sheet is locked, so a refusal loses nothing.
+    if (prepared.outcome && prepared.sheet.role === 'first') {
+      const slot = await this.slots.getById(prepared.sheet.slotId);
+      if (slot.outcome !== prepared.outcome)
+        await this.sittings.recordOutcome(slot.id, { outcome: prepared.outcome });
+    }
+    return this.db.transaction(async (em) => {
+      const sheet = await this.ownSheet(em, sheetId, 'pessimistic_write');
+      if (sheet.status !== 'submitted') {
+        sheet.status = 'submitted';
+        sheet.submittedAt = now();
+        await this.sheets.withManager(em).save(sheet);
+        await this.audit.record(
+          {
+            action: 'mark_sheet.submitted',
+            entity: 'mark_sheet',
+            entityId: sheet.id,
+            after: { slotId: sheet.slotId, by: caller.personId },
+          },
+          em,
+        );
+      }
+      return this.deskView(em, await this.markedSlot(em, sheet.slotId));
+    });
+  }
+
+  /**
+   * A sheet: the caller's own; the other examiner's of the same slot only once every sheet of the
+   * slot is submitted (blind second marking); an admin's view of submitted sheets. Else 404.
+   */
+  async getSheet(sheetId: string): Promise<ReturnType<typeof toSheetView>> {
+    const caller = RequestContext.requireCaller();
+    return this.db.transaction(async (em) => {
+      const sheet = await this.sheets
+        .withManager(em)
+        .getOne({ where: { id: sheetId }, relations: { examiner: { person: true }, slot: true } });
+      if (!(await this.maySee(em, caller, sheet))) throw notFound('mark sheet');
+      return toSheetView(
+        sheet,
+        await this.cells.withManager(em).find({ where: { sheetId }, order: { cell: 'ASC' } }),
+      );
+    });
+  }
+
+  private async maySee(em: EntityManager, caller: Caller, sheet: MarkSheet): Promise<boolean> {
+    if (caller.roles.includes('examiner') && sheet.examinerMembershipId === caller.membershipId)
+      return true;
+    const slot = sheet.slot!;
+    const all = await this.sheets.withManager(em).find({ where: { slotId: slot.id } });
+    const expected = slot.secondExaminerMembershipId ? 2 : 1;
+    const allIn = all.length >= expected && all.every((s) => s.status === 'submitted');
+    if (!allIn) return false;
+    if (caller.roles.includes('admin')) return true;
+    const me = caller.membershipId;
+    return (
+      caller.roles.includes('examiner') &&
+      (slot.examinerMembershipId === me || slot.secondExaminerMembershipId === me)
+    );
+  }
+}
+
+function clock(instant: Date, timeZone: string): string {
+  return new Intl.DateTimeFormat('en-GB', {
+    timeZone,
+    hour: '2-digit',
+    minute: '2-digit',
+    hourCycle: 'h23',
+  }).format(instant);
+}
