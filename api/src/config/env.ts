@@ -31,6 +31,8 @@ export const envSchema = z
     MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(6),
     MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
     MAIL_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),
+    // false: this instance queues mail but leaves sending to another (the import benchmark, a web-only node).
+    MAIL_WORKER_ENABLED: bool.default(true),
     // One-time links in e-mails.
     INVITATION_LINK_HOURS: z.coerce.number().int().min(1).max(24 * 30).default(72),
     RESET_LINK_HOURS: z.coerce.number().int().min(1).max(72).default(2),

@@ -36,6 +36,7 @@ export class MailSender implements OnApplicationBootstrap {
   }
 
   onApplicationBootstrap(): void {
+    if (!this.env.MAIL_WORKER_ENABLED) return;
     this.queue.startWorker((jobs) => this.process(jobs));
   }
 
