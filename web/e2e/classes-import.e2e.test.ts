@@ -28,7 +28,10 @@ describe('a teacher imports a class list', () => {
   it('checks a file with one bad row, imports the fixed file, and sees the class', async () => {
     const { page } = s;
     await signIn(page, DEMO.teacher);
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Classes' }).click();
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Classes' })
+      .click();
     await page.getByRole('heading', { name: 'Classes', level: 1 }).waitFor();
     await page.getByRole('button', { name: 'Import a class list' }).click();
     const dialog = page.getByRole('dialog', { name: 'Import a class list' });
@@ -37,9 +40,13 @@ describe('a teacher imports a class list', () => {
     // 1. The file as it came, with an impossible date on line 4.
     await dialog.getByLabel('Class list file (CSV)').setInputFiles(BAD);
     await dialog.getByRole('button', { name: 'Check the file' }).click();
-    await dialog.getByText('1 row has an error, so this file cannot be imported yet.', { exact: false }).waitFor();
+    await dialog
+      .getByText('1 row has an error, so this file cannot be imported yet.', { exact: false })
+      .waitFor();
     const errorRow = dialog.getByRole('row').filter({ hasText: 'KL2103' });
-    await expect.poll(() => errorRow.textContent()).toContain('Date of birth “2017-02-30” is not a real date');
+    await expect
+      .poll(() => errorRow.textContent())
+      .toContain('Date of birth “2017-02-30” is not a real date');
     expect(await errorRow.getByRole('cell').first().textContent()).toBe('4');
     expect(await dialog.getByRole('button', { name: /^Import \d+ rows?$/ }).count()).toBe(0);
     await screenshot(page, 'classes-import-1-error');
@@ -55,7 +62,9 @@ describe('a teacher imports a class list', () => {
     // 3. Import: one step, all rows.
     await dialog.getByRole('button', { name: 'Import 6 rows' }).click();
     await dialog.waitFor({ state: 'hidden' });
-    await page.getByText(/Imported tuesday-beginners\.csv: 5 new, 1 updated, 0 unchanged/).waitFor();
+    await page
+      .getByText(/Imported tuesday-beginners\.csv: 5 new, 1 updated, 0 unchanged/)
+      .waitFor();
     const row = page.getByRole('row').filter({ hasText: 'TUE-BEG' });
     await row.waitFor();
     expect(await row.textContent()).toContain('Idris Calloway');
@@ -74,17 +83,27 @@ describe('a teacher imports a class list', () => {
   it('the invitation appears in the Outbox, and its link sets a password that signs in', async () => {
     const { page } = s;
     await signIn(page, DEMO.admin);
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Outbox' }).click();
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Outbox' })
+      .click();
     await page.getByRole('heading', { name: 'Outbox', level: 1 }).waitFor();
-    const invite = page.getByRole('row').filter({ hasText: 'saoirse.lambourne@mail.example' }).filter({ hasText: 'Welcome to Stavemark' });
+    const invite = page
+      .getByRole('row')
+      .filter({ hasText: 'saoirse.lambourne@mail.example' })
+      .filter({ hasText: 'Welcome to Stavemark' });
     await invite.first().waitFor({ timeout: 20_000 });
     await invite.first().click();
     const mail = page.getByRole('article', { name: 'The chosen e-mail' });
-    await mail.getByRole('heading', { name: 'Welcome to Stavemark at Kestrel Lane Music School' }).waitFor();
+    await mail
+      .getByRole('heading', { name: 'Welcome to Stavemark at Kestrel Lane Music School' })
+      .waitFor();
     await screenshot(page, 'classes-import-4-outbox');
 
     // Sign out, then follow the link as Saoirse would.
-    const href = await mail.getByRole('link', { name: /account\/welcome#token=/ }).getAttribute('href');
+    const href = await mail
+      .getByRole('link', { name: /account\/welcome#token=/ })
+      .getAttribute('href');
     expect(href).toMatch(/\/account\/welcome#token=[A-Za-z0-9_-]{43}$/);
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();

@@ -22,7 +22,9 @@ export async function bulkInsert(
 ): Promise<Record<string, string>[]> {
   if (rows.length === 0) return [];
   const arrays = columns.map((_, i) => rows.map((r) => (r[i] === undefined ? null : r[i])));
-  const params = arrays.map((a, i) => (columns[i]!.type === 'jsonb' ? a.map((v) => (v === null ? null : JSON.stringify(v))) : a));
+  const params = arrays.map((a, i) =>
+    columns[i]!.type === 'jsonb' ? a.map((v) => (v === null ? null : JSON.stringify(v))) : a,
+  );
   const sql =
     `INSERT INTO ${table} (${columns.map((c) => c.name).join(', ')}) ` +
     `SELECT * FROM unnest(${columns.map((c, i) => `$${i + 1}::${c.type}[]`).join(', ')}) ` +

@@ -33,5 +33,10 @@ export function classListCsv(classCode: string, students: Student[]): string {
 
 /** The template: the header line only, so no example row can be imported by mistake. */
 export function classListTemplate(): string {
-  return stringify([], { bom: true, header: true, columns: CLASS_LIST_COLUMNS.map((c) => c.header), record_delimiter: 'windows' });
+  return stringify([], {
+    bom: true,
+    header: true,
+    columns: CLASS_LIST_COLUMNS.map((c) => c.header),
+    record_delimiter: 'windows',
+  });
 }

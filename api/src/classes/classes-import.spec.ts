@@ -7,11 +7,17 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import { createTestApp, signIn, type TestApp } from '../../test/support/test-app.js';
 import { startMailCatcher, type RunningMailCatcher } from '../mail-catcher/catcher.js';
-import { clearCaughtMail, listCaughtMail, waitForCaughtMail, type CaughtMail } from '../mail-catcher/mailbox.js';
+import {
+  clearCaughtMail,
+  listCaughtMail,
+  waitForCaughtMail,
+  type CaughtMail,
+} from '../mail-catcher/mailbox.js';
 
 const SAMPLES = resolve(fileURLToPath(import.meta.url), '../../../../seed-data/class-lists');
 const sample = (name: string): Buffer => readFileSync(join(SAMPLES, name));
-const HEADER = 'Pupil number,Given name,Family name,Student e-mail,Date of birth,Guardian name,Guardian e-mail,Grade,Class code';
+const HEADER =
+  'Pupil number,Given name,Family name,Student e-mail,Date of birth,Guardian name,Guardian e-mail,Grade,Class code';
 const auth = (token: string) => ({ Authorization: `Bearer ${token}` });
 const linkIn = (mail: CaughtMail): string => {
   const m = /#token=([A-Za-z0-9_-]{43})/.exec(mail.text);
@@ -32,7 +38,8 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       .post(`/api/classes/import${dryRun ? '?dryRun=true' : ''}`)
       .set(auth(token))
       .attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), name);
-  const count = async (table: string): Promise<number> => Number(((await t.db.query(`SELECT count(*) AS n FROM ${table}`)) as { n: string }[])[0]!.n);
+  const count = async (table: string): Promise<number> =>
+    Number(((await t.db.query(`SELECT count(*) AS n FROM ${table}`)) as { n: string }[])[0]!.n);
   const snapshot = async () => ({
     students: await count('students'),
     guardians: await count('guardians'),
@@ -47,7 +54,12 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     dir = await mkdtemp(join(tmpdir(), 'stavemark-import-mail-'));
     catcher = await startMailCatcher({ dir, port: 0 });
     t = await createTestApp({
-      env: { SMTP_PORT: String(catcher.port), MAIL_CATCHER_DIR: dir, MAIL_POLL_SECONDS: '0.5', STAVEMARK_NOW: '2026-12-01T12:00:00Z' },
+      env: {
+        SMTP_PORT: String(catcher.port),
+        MAIL_CATCHER_DIR: dir,
+        MAIL_POLL_SECONDS: '0.5',
+        STAVEMARK_NOW: '2026-12-01T12:00:00Z',
+      },
     });
     teacher = await signIn(t, 'teacher@demo.example');
     admin = await signIn(t, 'admin@demo.example');
@@ -64,7 +76,12 @@ describe('class-list import, guardians and the e-mails they cause', () => {
 
   it('a dry run reports every row and writes nothing', async () => {
     const before = await snapshot();
-    const res = await upload(teacher, sample('tuesday-beginners.csv'), true, 'tuesday-beginners.csv');
+    const res = await upload(
+      teacher,
+      sample('tuesday-beginners.csv'),
+      true,
+      'tuesday-beginners.csv',
+    );
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({
       dryRun: true,
@@ -98,11 +115,15 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     expect(preview.body.counts).toEqual({ new: 4, updated: 1, unchanged: 0, error: 1 });
     const bad = preview.body.rows.find((r: { status: string }) => r.status === 'error');
     expect(bad).toMatchObject({ line: 4, pupilNumber: 'KL2103', name: 'Juniper Calloway-Reyes' });
-    expect(bad.errors).toEqual(['Date of birth “2017-02-30” is not a real date: check the day and the month.']);
+    expect(bad.errors).toEqual([
+      'Date of birth “2017-02-30” is not a real date: check the day and the month.',
+    ]);
 
     const applied = await upload(teacher, file, false);
     expect(applied.status).toBe(400);
-    expect(applied.body.message).toBe('1 row has an error, so nothing was imported. Correct the file and upload it again.');
+    expect(applied.body.message).toBe(
+      '1 row has an error, so nothing was imported. Correct the file and upload it again.',
+    );
     expect(applied.body.details.report.rows[2].errors[0]).toMatch(/2017-02-30/);
     expect(await snapshot()).toEqual(before);
     // Give a worker time to send anything it might have: the catcher stays empty.
@@ -114,7 +135,12 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     const before = await snapshot();
     const res = await upload(teacher, sample('tuesday-beginners.csv'), false);
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ applied: true, counts: { new: 5, updated: 1, unchanged: 0, error: 0 }, invitations: 2, guardianNotices: 3 });
+    expect(res.body).toMatchObject({
+      applied: true,
+      counts: { new: 5, updated: 1, unchanged: 0, error: 0 },
+      invitations: 2,
+      guardianNotices: 3,
+    });
     const after = await snapshot();
     expect(after.students - before.students).toBe(5);
     expect(after.guardians - before.guardians).toBe(4); // Saoirse is an adult with no guardian
@@ -126,35 +152,62 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     // The new class is taught by the teacher who imported it and lists its members.
     const list = await t.http().get('/api/classes').set(auth(teacher));
     const tue = list.body.find((c: { code: string }) => c.code === 'TUE-BEG');
-    expect(tue).toMatchObject({ name: 'TUE-BEG', memberCount: 6, teachers: [{ displayName: 'Idris Calloway' }] });
+    expect(tue).toMatchObject({
+      name: 'TUE-BEG',
+      memberCount: 6,
+      teachers: [{ displayName: 'Idris Calloway' }],
+    });
 
     const mails = await waitFor(dir, 5);
     const to = (addr: string) => mails.find((m) => m.envelope.to.includes(addr))!;
     const siblings = to('tess.ashcombe@family.example');
-    expect(siblings.subject).toBe('Maren and Otto at Kestrel Lane Music School: what we keep, and two questions for you');
+    expect(siblings.subject).toBe(
+      'Maren and Otto at Kestrel Lane Music School: what we keep, and two questions for you',
+    );
     expect(siblings.text).toContain('Hello Tess Ashcombe,');
     expect(siblings.html).toContain('Give my answers');
-    expect(siblings.text).toMatch(/http:\/\/localhost:3000\/account\/consent#token=[A-Za-z0-9_-]{43}/);
+    expect(siblings.text).toMatch(
+      /http:\/\/localhost:3000\/account\/consent#token=[A-Za-z0-9_-]{43}/,
+    );
     const invite = to('saoirse.lambourne@mail.example');
     expect(invite.subject).toBe('Welcome to Stavemark at Kestrel Lane Music School');
-    expect(invite.text).toContain('The link works once, for 72 hours. If it has run out, ask for a fresh one here: http://localhost:3000/account/forgot-password');
+    expect(invite.text).toContain(
+      'The link works once, for 72 hours. If it has run out, ask for a fresh one here: http://localhost:3000/account/forgot-password',
+    );
     expect(to('idris.penhale@pupils.example').subject).toMatch(/^Welcome/);
     expect(to('wyn.penhale@family.example').subject).toMatch(/^Idris at/);
     expect(to('dani.reyes@family.example').subject).toMatch(/^Juniper at/);
     // Every row is marked sent, and no link is stored in a usable form.
-    const rows = (await t.db.query(`SELECT status, message_id FROM outbound_mail`)) as { status: string; message_id: string }[];
+    const rows = (await t.db.query(`SELECT status, message_id FROM outbound_mail`)) as {
+      status: string;
+      message_id: string;
+    }[];
     expect(rows.every((r) => r.status === 'sent' && r.message_id)).toBe(true);
-    const stored = JSON.stringify(await t.db.query(`SELECT * FROM account_tokens`)) + JSON.stringify(await t.db.query(`SELECT * FROM outbound_mail`));
+    const stored =
+      JSON.stringify(await t.db.query(`SELECT * FROM account_tokens`)) +
+      JSON.stringify(await t.db.query(`SELECT * FROM outbound_mail`));
     expect(stored).not.toContain(linkIn(invite));
 
     // The invitation works once: set a password, sign in, and the link is spent.
     const token = linkIn(invite);
     const info = await t.http().post('/api/account/link').send({ token });
-    expect(info.body).toMatchObject({ purpose: 'invitation', displayName: 'Saoirse Lambourne', organisationName: 'Kestrel Lane Music School' });
-    const set = await t.http().post('/api/account/accept-invitation').send({ token, password: 'a-fine-long-password' });
+    expect(info.body).toMatchObject({
+      purpose: 'invitation',
+      displayName: 'Saoirse Lambourne',
+      organisationName: 'Kestrel Lane Music School',
+    });
+    const set = await t
+      .http()
+      .post('/api/account/accept-invitation')
+      .send({ token, password: 'a-fine-long-password' });
     expect(set.status).toBe(200);
-    expect(await signIn(t, 'saoirse.lambourne@mail.example', 'a-fine-long-password')).toMatch(/^ey/);
-    const again = await t.http().post('/api/account/accept-invitation').send({ token, password: 'another-long-password' });
+    expect(await signIn(t, 'saoirse.lambourne@mail.example', 'a-fine-long-password')).toMatch(
+      /^ey/,
+    );
+    const again = await t
+      .http()
+      .post('/api/account/accept-invitation')
+      .send({ token, password: 'another-long-password' });
     expect(again.status).toBe(400);
     expect(again.body.message).toMatch(/expired or has already been used/);
 
@@ -162,11 +215,24 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     const consentToken = linkIn(siblings);
     const ask = await t.http().post('/api/account/consent/request').send({ token: consentToken });
     expect(ask.status).toBe(200);
-    expect(ask.body.children.map((c: { givenName: string }) => c.givenName)).toEqual(['Otto', 'Maren']);
-    const answers = ask.body.children.map((c: { studentId: string }, i: number) => ({ studentId: c.studentId, consentResultsEmail: true, consentRecordings: i === 0 }));
-    const partial = await t.http().post('/api/account/consent').send({ token: consentToken, answers: answers.slice(0, 1) });
+    expect(ask.body.children.map((c: { givenName: string }) => c.givenName)).toEqual([
+      'Otto',
+      'Maren',
+    ]);
+    const answers = ask.body.children.map((c: { studentId: string }, i: number) => ({
+      studentId: c.studentId,
+      consentResultsEmail: true,
+      consentRecordings: i === 0,
+    }));
+    const partial = await t
+      .http()
+      .post('/api/account/consent')
+      .send({ token: consentToken, answers: answers.slice(0, 1) });
     expect(partial.status).toBe(400);
-    const saved = await t.http().post('/api/account/consent').send({ token: consentToken, answers });
+    const saved = await t
+      .http()
+      .post('/api/account/consent')
+      .send({ token: consentToken, answers });
     expect(saved.status).toBe(200);
     const stored2 = (await t.db.query(
       `SELECT s.given_name, g.consent_results_email, g.consent_recordings FROM guardians g JOIN students s ON s.id = g.student_id
@@ -176,14 +242,20 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       { given_name: 'Maren', consent_results_email: true, consent_recordings: false },
       { given_name: 'Otto', consent_results_email: true, consent_recordings: true },
     ]);
-    expect((await t.http().post('/api/account/consent').send({ token: consentToken, answers })).status).toBe(400);
+    expect(
+      (await t.http().post('/api/account/consent').send({ token: consentToken, answers })).status,
+    ).toBe(400);
 
     // The Outbox shows what the catcher received, to an admin only.
     const outbox = await t.http().get('/api/dev/outbox').set(auth(admin));
     expect(outbox.status).toBe(200);
     expect(outbox.body.catcher).toBe(true);
     expect(outbox.body.items.length).toBeGreaterThanOrEqual(5);
-    expect(outbox.body.items[0]).toMatchObject({ status: 'sent', kind: expect.any(String), html: expect.stringContaining('<p') });
+    expect(outbox.body.items[0]).toMatchObject({
+      status: 'sent',
+      kind: expect.any(String),
+      html: expect.stringContaining('<p'),
+    });
     expect((await t.http().get('/api/dev/outbox').set(auth(teacher))).status).toBe(403);
   });
 
@@ -191,11 +263,16 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     const list = await t.http().get('/api/classes').set(auth(teacher));
     for (const code of ['MON-FND', 'TUE-BEG']) {
       const cls = list.body.find((c: { code: string }) => c.code === code);
-      const exported = await t.http().get(`/api/classes/${cls.id}/export`).set(auth(teacher)).buffer(true).parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+      const exported = await t
+        .http()
+        .get(`/api/classes/${cls.id}/export`)
+        .set(auth(teacher))
+        .buffer(true)
+        .parse((r, cb) => {
+          const chunks: Buffer[] = [];
+          r.on('data', (c: Buffer) => chunks.push(c));
+          r.on('end', () => cb(null, Buffer.concat(chunks)));
+        });
       expect(exported.status).toBe(200);
       expect(exported.headers['content-type']).toMatch(/^text\/csv/);
       const csv = exported.body as Buffer;
@@ -203,7 +280,12 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       expect(csv.toString('utf8')).toContain('\r\n');
       const before = await snapshot();
       const preview = await upload(teacher, csv, true);
-      expect(preview.body.counts).toEqual({ new: 0, updated: 0, unchanged: cls.memberCount, error: 0 });
+      expect(preview.body.counts).toEqual({
+        new: 0,
+        updated: 0,
+        unchanged: cls.memberCount,
+        error: 0,
+      });
       const applied = await upload(teacher, csv, false);
       expect(applied.status).toBe(200);
       expect(applied.body.counts.unchanged).toBe(cls.memberCount);
@@ -212,8 +294,13 @@ describe('class-list import, guardians and the e-mails they cause', () => {
   });
 
   it('neutralises formula-like cells in the export (design.md §8; OWASP CSV injection)', async () => {
-    const [s] = (await t.db.query(`SELECT id FROM students WHERE pupil_number = 'KL1001'`)) as { id: string }[];
-    await t.db.query(`UPDATE guardians SET name = '=HYPERLINK("http://x.example","y")' WHERE student_id = $1`, [s!.id]);
+    const [s] = (await t.db.query(`SELECT id FROM students WHERE pupil_number = 'KL1001'`)) as {
+      id: string;
+    }[];
+    await t.db.query(
+      `UPDATE guardians SET name = '=HYPERLINK("http://x.example","y")' WHERE student_id = $1`,
+      [s!.id],
+    );
     const list = await t.http().get('/api/classes').set(auth(teacher));
     const cls = list.body.find((c: { code: string }) => c.code === 'MON-FND');
     const res = await t.http().get(`/api/classes/${cls.id}/export`).set(auth(teacher));
@@ -237,16 +324,23 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     ].join('\n');
     const res = await upload(teacher, csv, true);
     expect(res.status).toBe(200);
-    const errs = (line: number) => res.body.rows.find((r: { line: number }) => r.line === line).errors as string[];
+    const errs = (line: number) =>
+      res.body.rows.find((r: { line: number }) => r.line === line).errors as string[];
     expect(errs(2)).toEqual(['Pupil number KL3001 is in the file more than once (also line 3).']);
     expect(errs(3)).toEqual(['Pupil number KL3001 is in the file more than once (also line 2).']);
-    expect(errs(4)).toEqual(['Tam Yew is 11 on 2026-12-01: a student under 18 needs a guardian e-mail.']);
+    expect(errs(4)).toEqual([
+      'Tam Yew is 11 on 2026-12-01: a student under 18 needs a guardian e-mail.',
+    ]);
     expect(errs(5)).toEqual(['Student e-mail “ros@” is not an e-mail address.']);
     expect(errs(6)).toEqual(['Grade “13” should be a whole number from 0 to 12.']);
-    expect(errs(7)).toEqual(['Given name starts with “=”, which spreadsheets run as a formula. Remove it.']);
+    expect(errs(7)).toEqual([
+      'Given name starts with “=”, which spreadsheets run as a formula. Remove it.',
+    ]);
     expect(errs(8)[0]).toMatch(/10 fields but the header has 9/);
     // 17 the day after the import date: still a minor (age counted on the organisation's date).
-    expect(errs(9)).toEqual(['Cy Ash is 17 on 2026-12-01: a student under 18 needs a guardian e-mail.']);
+    expect(errs(9)).toEqual([
+      'Cy Ash is 17 on 2026-12-01: a student under 18 needs a guardian e-mail.',
+    ]);
     expect(res.body.counts.error).toBe(8);
   });
 
@@ -259,7 +353,9 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     ].join('\r\n');
     const res = await upload(teacher, csv, true);
     expect(res.body.rows[0].errors[0]).toMatch(/Class SAT-DIP is taught by other teachers/);
-    expect(res.body.rows[1].errors[0]).toMatch(/Pupil number KL1031 belongs to a student who is not in your classes/);
+    expect(res.body.rows[1].errors[0]).toMatch(
+      /Pupil number KL1031 belongs to a student who is not in your classes/,
+    );
     // An admin may do both.
     const asAdmin = await upload(admin, csv, true);
     expect(asAdmin.body.counts.error).toBe(0);
@@ -267,49 +363,93 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     const classes = await t.http().get('/api/classes').set(auth(admin));
     const satDip = classes.body.find((c: { code: string }) => c.code === 'SAT-DIP');
     expect((await t.http().get(`/api/classes/${satDip.id}`).set(auth(teacher))).status).toBe(404);
-    expect((await t.http().get(`/api/classes/${satDip.id}/export`).set(auth(teacher))).status).toBe(404);
+    expect((await t.http().get(`/api/classes/${satDip.id}/export`).set(auth(teacher))).status).toBe(
+      404,
+    );
     const other = await signIn(t, 'admin@fernhill.example');
     expect((await t.http().get(`/api/classes/${satDip.id}`).set(auth(other))).status).toBe(404);
-    expect((await t.http().get('/api/classes').set(auth(other))).body.map((c: { code: string }) => c.code)).toEqual(['FH-TUE']);
+    expect(
+      (await t.http().get('/api/classes').set(auth(other))).body.map(
+        (c: { code: string }) => c.code,
+      ),
+    ).toEqual(['FH-TUE']);
   });
 
   it('bad files over HTTP: binary, Latin-1, too large, no file', async () => {
-    const binary = await upload(teacher, Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 0]), true, 'list.xlsx');
+    const binary = await upload(
+      teacher,
+      Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 0]),
+      true,
+      'list.xlsx',
+    );
     expect(binary.status).toBe(400);
     expect(binary.body.message).toMatch(/not a CSV text file/);
-    const latin1 = Buffer.concat([Buffer.from(`${HEADER}\nKL1,Zo`), Buffer.from([0xeb]), Buffer.from(',Pendry,,2000-01-01,,,,A\n')]);
+    const latin1 = Buffer.concat([
+      Buffer.from(`${HEADER}\nKL1,Zo`),
+      Buffer.from([0xeb]),
+      Buffer.from(',Pendry,,2000-01-01,,,,A\n'),
+    ]);
     const l = await upload(teacher, latin1, false);
     expect(l.status).toBe(400);
     expect(l.body.message).toMatch(/not UTF-8 text: line 2/);
     const big = await upload(teacher, Buffer.alloc(2 * 1024 * 1024 + 10, 0x41), true);
     expect(big.status).toBe(413);
     expect(big.body.message).toMatch(/larger than 2 MB/);
-    const none = await t.http().post('/api/classes/import?dryRun=true').set(auth(teacher)).field('x', 'y');
+    const none = await t
+      .http()
+      .post('/api/classes/import?dryRun=true')
+      .set(auth(teacher))
+      .field('x', 'y');
     expect(none.status).toBe(400);
     expect(none.body.message).toMatch(/Choose a CSV file/);
-    const badQuery = await t.http().post('/api/classes/import?dryRun=maybe').set(auth(teacher)).attach('file', Buffer.from(HEADER), 'a.csv');
+    const badQuery = await t
+      .http()
+      .post('/api/classes/import?dryRun=maybe')
+      .set(auth(teacher))
+      .attach('file', Buffer.from(HEADER), 'a.csv');
     expect(badQuery.status).toBe(400);
   });
 
   it('forgot password: the same answer for any address; a reset link only for a real one; a reset signs out old sessions', async () => {
     const before = await count('outbound_mail');
-    const unknown = await t.http().post('/api/account/forgot-password').send({ email: 'nobody@demo.example' });
-    const known = await t.http().post('/api/account/forgot-password').send({ email: 'examiner@demo.example' });
+    const unknown = await t
+      .http()
+      .post('/api/account/forgot-password')
+      .send({ email: 'nobody@demo.example' });
+    const known = await t
+      .http()
+      .post('/api/account/forgot-password')
+      .send({ email: 'examiner@demo.example' });
     expect(unknown.status).toBe(202);
     expect(known.status).toBe(202);
     expect(known.body).toEqual(unknown.body);
     expect((await count('outbound_mail')) - before).toBe(1);
-    const mail = await waitForCaughtMail(dir, (m) => m.envelope.to.includes('examiner@demo.example'));
+    const mail = await waitForCaughtMail(dir, (m) =>
+      m.envelope.to.includes('examiner@demo.example'),
+    );
     expect(mail.subject).toBe('Choose a new Stavemark password');
     expect(mail.text).toContain('for 2 hours');
 
     const old = await signIn(t, 'examiner@demo.example');
     const token = linkIn(mail);
-    const short = await t.http().post('/api/account/reset-password').send({ token, password: 'short' });
+    const short = await t
+      .http()
+      .post('/api/account/reset-password')
+      .send({ token, password: 'short' });
     expect(short.status).toBe(400);
     // An invitation route does not accept a reset link.
-    expect((await t.http().post('/api/account/accept-invitation').send({ token, password: 'a-new-long-password' })).status).toBe(400);
-    const reset = await t.http().post('/api/account/reset-password').send({ token, password: 'a-new-long-password' });
+    expect(
+      (
+        await t
+          .http()
+          .post('/api/account/accept-invitation')
+          .send({ token, password: 'a-new-long-password' })
+      ).status,
+    ).toBe(400);
+    const reset = await t
+      .http()
+      .post('/api/account/reset-password')
+      .send({ token, password: 'a-new-long-password' });
     expect(reset.status).toBe(200);
     expect((await t.http().get('/api/auth/me').set(auth(old))).status).toBe(401);
     expect(await signIn(t, 'examiner@demo.example', 'a-new-long-password')).toMatch(/^ey/);
@@ -317,13 +457,26 @@ describe('class-list import, guardians and the e-mails they cause', () => {
   });
 
   it('an expired link answers like a used one', async () => {
-    await t.http().post('/api/account/forgot-password').send({ email: 'tomasz.whitcombe@demo.example' });
-    const mail = await waitForCaughtMail(dir, (m) => m.envelope.to.includes('tomasz.whitcombe@demo.example'));
-    await t.db.query(`UPDATE account_tokens SET expires_at = '2026-12-01T11:59:59Z' WHERE purpose = 'password_reset' AND used_at IS NULL`);
-    const res = await t.http().post('/api/account/reset-password').send({ token: linkIn(mail), password: 'a-new-long-password' });
+    await t
+      .http()
+      .post('/api/account/forgot-password')
+      .send({ email: 'tomasz.whitcombe@demo.example' });
+    const mail = await waitForCaughtMail(dir, (m) =>
+      m.envelope.to.includes('tomasz.whitcombe@demo.example'),
+    );
+    await t.db.query(
+      `UPDATE account_tokens SET expires_at = '2026-12-01T11:59:59Z' WHERE purpose = 'password_reset' AND used_at IS NULL`,
+    );
+    const res = await t
+      .http()
+      .post('/api/account/reset-password')
+      .send({ token: linkIn(mail), password: 'a-new-long-password' });
     expect(res.status).toBe(400);
     expect(res.body.message).toMatch(/expired or has already been used/);
-    const garbled = await t.http().post('/api/account/link').send({ token: 'x'.repeat(43) });
+    const garbled = await t
+      .http()
+      .post('/api/account/link')
+      .send({ token: 'x'.repeat(43) });
     expect(garbled.status).toBe(400);
     expect(garbled.body.message).toBe(res.body.message);
   });

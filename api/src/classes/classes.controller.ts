@@ -1,5 +1,23 @@
-import { Controller, Delete, Get, Header, HttpCode, Patch, Post, Req, Res, UseInterceptors } from '@nestjs/common';
-import { ApiBody, ApiConflictResponse, ApiConsumes, ApiPayloadTooLargeResponse, ApiProduces, ApiTags } from '@nestjs/swagger';
+import {
+  Controller,
+  Delete,
+  Get,
+  Header,
+  HttpCode,
+  Patch,
+  Post,
+  Req,
+  Res,
+  UseInterceptors,
+} from '@nestjs/common';
+import {
+  ApiBody,
+  ApiConflictResponse,
+  ApiConsumes,
+  ApiPayloadTooLargeResponse,
+  ApiProduces,
+  ApiTags,
+} from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import {
   addClassMemberSchema,
@@ -27,7 +45,9 @@ import { ClassImportService } from './import/class-import.service.js';
 import { CsvUploadInterceptor } from './import/csv-upload.interceptor.js';
 
 const STAFF = ['admin', 'teacher'] as const;
-const COLUMNS_DOC = CLASS_LIST_COLUMNS.map((c) => `${c.header}${c.required ? '' : ' (optional)'}`).join(', ');
+const COLUMNS_DOC = CLASS_LIST_COLUMNS.map(
+  (c) => `${c.header}${c.required ? '' : ' (optional)'}`,
+).join(', ');
 
 @ApiTags('classes')
 @Controller('classes')
@@ -44,14 +64,22 @@ export class ClassesController {
   }
 
   @Post()
-  @Route({ summary: 'Create a class', roles: [...STAFF], description: 'A teacher who creates a class teaches it.' })
+  @Route({
+    summary: 'Create a class',
+    roles: [...STAFF],
+    description: 'A teacher who creates a class teaches it.',
+  })
   @ApiConflictResponse({ description: 'The class code is already used.' })
   create(@ValidBody(createClassSchema) body: CreateClassInput): Promise<ClassRow> {
     return this.classes.create(body);
   }
 
   @Get('import/template')
-  @Route({ summary: 'The class-list CSV template (header line)', roles: [...STAFF], description: `Columns: ${COLUMNS_DOC}.` })
+  @Route({
+    summary: 'The class-list CSV template (header line)',
+    roles: [...STAFF],
+    description: `Columns: ${COLUMNS_DOC}.`,
+  })
   @ApiProduces('text/csv')
   @Header('Content-Type', 'text/csv; charset=utf-8')
   @Header('Content-Disposition', 'attachment; filename="class-list-template.csv"')
@@ -74,9 +102,18 @@ export class ClassesController {
       'and new class codes only.',
   })
   @ApiConsumes('multipart/form-data')
-  @ApiBody({ schema: { type: 'object', required: ['file'], properties: { file: { type: 'string', format: 'binary' } } } })
+  @ApiBody({
+    schema: {
+      type: 'object',
+      required: ['file'],
+      properties: { file: { type: 'string', format: 'binary' } },
+    },
+  })
   @ApiPayloadTooLargeResponse({ description: 'Larger than 2 MB.' })
-  importList(@Req() req: Request, @ValidQuery(classImportQuerySchema) q: ClassImportQuery): Promise<ImportReport> {
+  importList(
+    @Req() req: Request,
+    @ValidQuery(classImportQuerySchema) q: ClassImportQuery,
+  ): Promise<ImportReport> {
     return this.importer.import(req.file!, q.dryRun);
   }
 
@@ -87,15 +124,30 @@ export class ClassesController {
   }
 
   @Patch(':id')
-  @Route({ summary: 'Rename, deactivate or reactivate a class; admins also set its teachers', roles: [...STAFF], owned: true })
-  update(@IdParam() id: string, @ValidBody(updateClassSchema) body: UpdateClassInput): Promise<ClassRow> {
+  @Route({
+    summary: 'Rename, deactivate or reactivate a class; admins also set its teachers',
+    roles: [...STAFF],
+    owned: true,
+  })
+  update(
+    @IdParam() id: string,
+    @ValidBody(updateClassSchema) body: UpdateClassInput,
+  ): Promise<ClassRow> {
     return this.classes.update(id, body);
   }
 
   @Get(':id/export')
-  @Route({ summary: 'The class list as CSV, in the import layout', roles: [...STAFF], owned: true, description: 'Importing it again changes nothing.' })
+  @Route({
+    summary: 'The class list as CSV, in the import layout',
+    roles: [...STAFF],
+    owned: true,
+    description: 'Importing it again changes nothing.',
+  })
   @ApiProduces('text/csv')
-  async exportList(@IdParam() id: string, @Res({ passthrough: true }) res: Response): Promise<string> {
+  async exportList(
+    @IdParam() id: string,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<string> {
     const { fileName, csv } = await this.classes.exportCsv(id);
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', `attachment; filename="${fileName}"`);
@@ -105,15 +157,29 @@ export class ClassesController {
 
   @Post(':id/members')
   @HttpCode(200)
-  @Route({ summary: 'Add a student to the class, or move one here from another class', roles: [...STAFF], owned: true })
-  addMember(@IdParam() id: string, @ValidBody(addClassMemberSchema) body: AddClassMemberInput): Promise<ClassDetail> {
+  @Route({
+    summary: 'Add a student to the class, or move one here from another class',
+    roles: [...STAFF],
+    owned: true,
+  })
+  addMember(
+    @IdParam() id: string,
+    @ValidBody(addClassMemberSchema) body: AddClassMemberInput,
+  ): Promise<ClassDetail> {
     return this.classes.addMember(id, body);
   }
 
   @Delete(':id/members/:studentId')
   @HttpCode(204)
-  @Route({ summary: 'Take a student out of the class (the student and their records stay)', roles: [...STAFF], owned: true })
-  async removeMember(@IdParam() id: string, @IdParam('studentId') studentId: string): Promise<void> {
+  @Route({
+    summary: 'Take a student out of the class (the student and their records stay)',
+    roles: [...STAFF],
+    owned: true,
+  })
+  async removeMember(
+    @IdParam() id: string,
+    @IdParam('studentId') studentId: string,
+  ): Promise<void> {
     await this.classes.removeMember(id, studentId);
   }
 }

@@ -4,7 +4,12 @@ import type { Student } from '../students/entities/student.entity.js';
 import type { ClassGroup } from './entities/class-group.entity.js';
 
 export function toGuardianView(g: Guardian): GuardianView {
-  return { name: g.name, email: g.email, consentResultsEmail: g.consentResultsEmail, consentRecordings: g.consentRecordings };
+  return {
+    name: g.name,
+    email: g.email,
+    consentResultsEmail: g.consentResultsEmail,
+    consentRecordings: g.consentRecordings,
+  };
 }
 
 /** What leaves the server about a student: never the entity itself. */
@@ -19,7 +24,9 @@ export function toStudentRow(s: Student, classCodes: string[]): StudentRow {
     grade: s.grade,
     active: s.active,
     hasSignIn: s.membershipId !== null,
-    guardians: [...(s.guardians ?? [])].sort((a, b) => a.email.localeCompare(b.email)).map(toGuardianView),
+    guardians: [...(s.guardians ?? [])]
+      .sort((a, b) => a.email.localeCompare(b.email))
+      .map(toGuardianView),
     classCodes: [...classCodes].sort(),
   };
 }

@@ -1,7 +1,14 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, In, Repository, type EntityManager } from 'typeorm';
-import type { AddClassMemberInput, ClassDetail, ClassRow, CreateClassInput, ListClassesQuery, UpdateClassInput } from '@stavemark/shared';
+import type {
+  AddClassMemberInput,
+  ClassDetail,
+  ClassRow,
+  CreateClassInput,
+  ListClassesQuery,
+  UpdateClassInput,
+} from '@stavemark/shared';
 import { AuditService } from '../audit/audit.service.js';
 import { conflict, forbidden, invalid, notFound } from '../common/errors.js';
 import { RequestContext, type Caller } from '../common/request-context.js';
@@ -40,7 +47,9 @@ export class ClassesService {
   async visibleClassIds(em: EntityManager = this.db.manager): Promise<Set<string> | null> {
     const caller = RequestContext.requireCaller();
     if (isAdmin(caller)) return null;
-    const rows = (await em.query(`SELECT class_id FROM class_teachers WHERE membership_id = $1`, [caller.membershipId])) as { class_id: string }[];
+    const rows = (await em.query(`SELECT class_id FROM class_teachers WHERE membership_id = $1`, [
+      caller.membershipId,
+    ])) as { class_id: string }[];
     return new Set(rows.map((r) => r.class_id));
   }
 
@@ -63,9 +72,10 @@ export class ClassesService {
     if (q.active !== undefined) qb.andWhere('c.active = :active', { active: q.active });
     const rows = await qb.getMany();
     const counts = rows.length
-      ? ((await this.db.query(`SELECT class_id, count(*)::int AS n FROM class_members WHERE class_id = ANY($1) GROUP BY class_id`, [
-          rows.map((c) => c.id),
-        ])) as { class_id: string; n: number }[])
+      ? ((await this.db.query(
+          `SELECT class_id, count(*)::int AS n FROM class_members WHERE class_id = ANY($1) GROUP BY class_id`,
+          [rows.map((c) => c.id)],
+        )) as { class_id: string; n: number }[])
       : [];
     const countOf = new Map(counts.map((r) => [r.class_id, r.n]));
     return rows.map((c) => toClassRow(c, countOf.get(c.id) ?? 0));
@@ -79,7 +89,10 @@ export class ClassesService {
       members.map((m) => m.id),
       visible,
     );
-    return { ...toClassRow(c, members.length), members: members.map((m) => toStudentRow(m, codes.get(m.id) ?? [])) };
+    return {
+      ...toClassRow(c, members.length),
+      members: members.map((m) => toStudentRow(m, codes.get(m.id) ?? [])),
+    };
   }
 
   async create(input: CreateClassInput): Promise<ClassRow> {
@@ -87,16 +100,35 @@ export class ClassesService {
     const created = await this.db.transaction(async (em) => {
       const classes = this.classes.withManager(em);
       if (await classes.findOne({ where: { code: input.code } })) {
-        throw conflict(`The class code ${input.code} is already used here.`, [{ path: 'code', message: 'already used' }]);
+        throw conflict(`The class code ${input.code} is already used here.`, [
+          { path: 'code', message: 'already used' },
+        ]);
       }
       let teacherPeople = input.teacherIds ?? [];
       if (!isAdmin(caller)) {
         // A teacher who creates a class teaches it.
-        if (!teacherPeople.includes(caller.personId)) teacherPeople = [caller.personId, ...teacherPeople];
+        if (!teacherPeople.includes(caller.personId))
+          teacherPeople = [caller.personId, ...teacherPeople];
       }
       const teachers = await this.teachersFor(em, teacherPeople);
-      const c = await classes.save(classes.create({ name: input.name, code: input.code, grade: input.grade ?? null, active: true, teachers }));
-      await this.audit.record({ action: 'class.created', entity: 'class', entityId: c.id, after: { name: c.name, code: c.code } }, em);
+      const c = await classes.save(
+        classes.create({
+          name: input.name,
+          code: input.code,
+          grade: input.grade ?? null,
+          active: true,
+          teachers,
+        }),
+      );
+      await this.audit.record(
+        {
+          action: 'class.created',
+          entity: 'class',
+          entityId: c.id,
+          after: { name: c.name, code: c.code },
+        },
+        em,
+      );
       return c.id;
     });
     return toClassRow(await this.ownedClass(created), 0);
@@ -106,9 +138,15 @@ export class ClassesService {
     const caller = RequestContext.requireCaller();
     await this.db.transaction(async (em) => {
       const c = await this.ownedClass(id, em);
-      const before = { name: c.name, grade: c.grade, active: c.active, teachers: (c.teachers ?? []).map((t) => t.personId) };
+      const before = {
+        name: c.name,
+        grade: c.grade,
+        active: c.active,
+        teachers: (c.teachers ?? []).map((t) => t.personId),
+      };
       if (input.teacherIds !== undefined) {
-        if (!isAdmin(caller)) throw forbidden('Only an administrator can change who teaches a class.');
+        if (!isAdmin(caller))
+          throw forbidden('Only an administrator can change who teaches a class.');
         c.teachers = await this.teachersFor(em, input.teacherIds);
       }
       if (input.name !== undefined) c.name = input.name;
@@ -121,7 +159,12 @@ export class ClassesService {
           entity: 'class',
           entityId: c.id,
           before,
-          after: { name: c.name, grade: c.grade, active: c.active, teachers: (c.teachers ?? []).map((t) => t.personId) },
+          after: {
+            name: c.name,
+            grade: c.grade,
+            active: c.active,
+            teachers: (c.teachers ?? []).map((t) => t.personId),
+          },
         },
         em,
       );
@@ -139,10 +182,16 @@ export class ClassesService {
         if (input.fromClassId === classId) throw invalid('The student is already in this class.');
         const from = await this.ownedClass(input.fromClassId, em);
         // TypeORM answers a DELETE with [rows, affected count].
-        const [, removed] = (await em.query(`DELETE FROM class_members WHERE class_id = $1 AND student_id = $2`, [from.id, student.id])) as [unknown, number];
+        const [, removed] = (await em.query(
+          `DELETE FROM class_members WHERE class_id = $1 AND student_id = $2`,
+          [from.id, student.id],
+        )) as [unknown, number];
         if (removed === 0) throw notFound('student in that class');
       }
-      await em.query(`INSERT INTO class_members (class_id, student_id) VALUES ($1, $2) ON CONFLICT DO NOTHING`, [target.id, student.id]);
+      await em.query(
+        `INSERT INTO class_members (class_id, student_id) VALUES ($1, $2) ON CONFLICT DO NOTHING`,
+        [target.id, student.id],
+      );
       await this.audit.record(
         {
           action: input.fromClassId ? 'class.member_moved' : 'class.member_added',
@@ -159,23 +208,39 @@ export class ClassesService {
   async removeMember(classId: string, studentId: string): Promise<void> {
     await this.db.transaction(async (em) => {
       await this.ownedClass(classId, em);
-      const [, removed] = (await em.query(`DELETE FROM class_members WHERE class_id = $1 AND student_id = $2`, [classId, studentId])) as [unknown, number];
+      const [, removed] = (await em.query(
+        `DELETE FROM class_members WHERE class_id = $1 AND student_id = $2`,
+        [classId, studentId],
+      )) as [unknown, number];
       if (removed === 0) throw notFound('student in this class');
-      await this.audit.record({ action: 'class.member_removed', entity: 'student', entityId: studentId, after: { classId } }, em);
+      await this.audit.record(
+        {
+          action: 'class.member_removed',
+          entity: 'student',
+          entityId: studentId,
+          after: { classId },
+        },
+        em,
+      );
     });
   }
 
   async exportCsv(id: string): Promise<{ fileName: string; csv: string }> {
     const c = await this.ownedClass(id);
     const members = await this.membersOf(id);
-    return { fileName: `class-${c.code.replace(/[^A-Za-z0-9_-]+/g, '-')}.csv`, csv: classListCsv(c.code, members) };
+    return {
+      fileName: `class-${c.code.replace(/[^A-Za-z0-9_-]+/g, '-')}.csv`,
+      csv: classListCsv(c.code, members),
+    };
   }
 
   /** Members with their guardians, ordered as a register is. */
   private membersOf(classId: string): Promise<Student[]> {
     return this.students
       .qb('s')
-      .innerJoin('class_members', 'cm', 'cm.student_id = s.id AND cm.class_id = :classId', { classId })
+      .innerJoin('class_members', 'cm', 'cm.student_id = s.id AND cm.class_id = :classId', {
+        classId,
+      })
       .leftJoinAndSelect('s.guardians', 'g')
       .orderBy('s.familyName', 'ASC')
       .addOrderBy('s.givenName', 'ASC')
@@ -184,7 +249,10 @@ export class ClassesService {
   }
 
   /** Class codes per student, limited to the classes the caller may see. */
-  async classCodesOf(studentIds: string[], visible: Set<string> | null): Promise<Map<string, string[]>> {
+  async classCodesOf(
+    studentIds: string[],
+    visible: Set<string> | null,
+  ): Promise<Map<string, string[]>> {
     const out = new Map<string, string[]>();
     if (studentIds.length === 0) return out;
     const rows = (await this.db.query(
@@ -204,7 +272,10 @@ export class ClassesService {
     const visible = await this.visibleClassIds(em);
     const qb = this.students.withManager(em).qb('s').andWhere('s.id = :id', { id: studentId });
     if (visible) {
-      qb.andWhere('EXISTS (SELECT 1 FROM class_members cm WHERE cm.student_id = s.id AND cm.class_id = ANY(:ids))', { ids: [...visible] });
+      qb.andWhere(
+        'EXISTS (SELECT 1 FROM class_members cm WHERE cm.student_id = s.id AND cm.class_id = ANY(:ids))',
+        { ids: [...visible] },
+      );
     }
     const s = await qb.getOne();
     if (!s) throw notFound('student');
@@ -213,12 +284,15 @@ export class ClassesService {
 
   private async teachersFor(em: EntityManager, personIds: string[]): Promise<Membership[]> {
     if (personIds.length === 0) return [];
-    const ms = await this.memberships.withManager(em).find({ where: { personId: In(personIds), active: true }, relations: { person: true } });
+    const ms = await this.memberships
+      .withManager(em)
+      .find({ where: { personId: In(personIds), active: true }, relations: { person: true } });
     const teachers = ms.filter((m) => m.roles.includes('teacher'));
     if (teachers.length !== new Set(personIds).size) {
-      throw invalid('Each teacher must be an active member with the teacher role.', [{ path: 'teacherIds', message: 'not a teacher here' }]);
+      throw invalid('Each teacher must be an active member with the teacher role.', [
+        { path: 'teacherIds', message: 'not a teacher here' },
+      ]);
     }
     return teachers;
   }
 }
-

@@ -31,42 +31,62 @@ export class InvitationsController {
 
   @Post('link')
   @HttpCode(200)
-  @PublicRoute('What an e-mailed link is for', 'Whom it greets and when it expires; 400 when it is unknown, used or expired.')
+  @PublicRoute(
+    'What an e-mailed link is for',
+    'Whom it greets and when it expires; 400 when it is unknown, used or expired.',
+  )
   linkInfo(@ValidBody(linkTokenInputSchema) body: LinkTokenInput): Promise<LinkInfo> {
     return this.invitations.linkInfo(body.token);
   }
 
   @Post('accept-invitation')
   @HttpCode(200)
-  @PublicRoute('Accept an invitation by choosing a first password', 'The link works once; older sessions are revoked.')
+  @PublicRoute(
+    'Accept an invitation by choosing a first password',
+    'The link works once; older sessions are revoked.',
+  )
   acceptInvitation(@ValidBody(setPasswordSchema) body: SetPasswordInput): Promise<AccountMessage> {
     return this.invitations.setPassword(body, 'invitation');
   }
 
   @Post('forgot-password')
   @HttpCode(202)
-  @PublicRoute('Ask for a password reset link', 'Answers the same whether or not the address has an account.')
-  forgotPassword(@ValidBody(forgotPasswordSchema) body: ForgotPasswordInput): Promise<AccountMessage> {
+  @PublicRoute(
+    'Ask for a password reset link',
+    'Answers the same whether or not the address has an account.',
+  )
+  forgotPassword(
+    @ValidBody(forgotPasswordSchema) body: ForgotPasswordInput,
+  ): Promise<AccountMessage> {
     return this.invitations.forgotPassword(body);
   }
 
   @Post('reset-password')
   @HttpCode(200)
-  @PublicRoute('Choose a new password through a reset link', 'The link works once; every older session is revoked.')
+  @PublicRoute(
+    'Choose a new password through a reset link',
+    'The link works once; every older session is revoked.',
+  )
   resetPassword(@ValidBody(setPasswordSchema) body: SetPasswordInput): Promise<AccountMessage> {
     return this.invitations.setPassword(body, 'password_reset');
   }
 
   @Post('consent/request')
   @HttpCode(200)
-  @PublicRoute('What a guardian’s consent link asks', 'The guardian’s children in the school and their current answers.')
+  @PublicRoute(
+    'What a guardian’s consent link asks',
+    'The guardian’s children in the school and their current answers.',
+  )
   consentRequest(@ValidBody(linkTokenInputSchema) body: LinkTokenInput): Promise<ConsentRequest> {
     return this.invitations.consentRequest(body.token);
   }
 
   @Post('consent')
   @HttpCode(200)
-  @PublicRoute('A guardian’s answers: results by e-mail, recordings', 'One answer pair per child; the link works once.')
+  @PublicRoute(
+    'A guardian’s answers: results by e-mail, recordings',
+    'One answer pair per child; the link works once.',
+  )
   submitConsent(@ValidBody(submitConsentSchema) body: SubmitConsentInput): Promise<AccountMessage> {
     return this.invitations.submitConsent(body);
   }

@@ -32,7 +32,8 @@ export interface NewLink {
 }
 
 /** One answer for every unknown, spent or expired link, so a link reveals nothing about others. */
-const LINK_GONE = 'This link has expired or has already been used. You can ask for a fresh one from the sign-in page, or from your school.';
+const LINK_GONE =
+  'This link has expired or has already been used. You can ask for a fresh one from the sign-in page, or from your school.';
 export const FORGOT_ANSWER =
   'If that address has a Stavemark account, we have sent it a link to choose a new password. It may take a minute to arrive; please check your spam folder too.';
 
@@ -49,7 +50,10 @@ export class InvitationsService {
    * Link rows without a token yet (minted when the e-mail is sent), in the caller's transaction.
    * Returns each new id with its person or guardian address to pair it with its e-mail.
    */
-  createLinks(em: EntityManager, links: NewLink[]): Promise<{ id: string; personId: string | null; guardianEmail: string | null }[]> {
+  createLinks(
+    em: EntityManager,
+    links: NewLink[],
+  ): Promise<{ id: string; personId: string | null; guardianEmail: string | null }[]> {
     return bulkInsert(
       em,
       'account_tokens',
@@ -61,23 +65,43 @@ export class InvitationsService {
       ],
       links.map((l) => [l.purpose, l.personId, l.organisationId, l.guardianEmail]),
       'id, person_id, guardian_email',
-    ).then((rows) => rows.map((r) => ({ id: r.id!, personId: r.person_id ?? null, guardianEmail: r.guardian_email ?? null })));
+    ).then((rows) =>
+      rows.map((r) => ({
+        id: r.id!,
+        personId: r.person_id ?? null,
+        guardianEmail: r.guardian_email ?? null,
+      })),
+    );
   }
 
   async linkInfo(token: string): Promise<LinkInfo> {
     const link = await this.findLive(this.db.manager, token);
-    const org = link.organisationId ? await this.db.manager.findOne(Organisation, { where: { id: link.organisationId } }) : null;
+    const org = link.organisationId
+      ? await this.db.manager.findOne(Organisation, { where: { id: link.organisationId } })
+      : null;
     let displayName = '';
-    if (link.personId) displayName = (await this.db.manager.findOneByOrFail(Person, { id: link.personId })).displayName;
+    if (link.personId)
+      displayName = (await this.db.manager.findOneByOrFail(Person, { id: link.personId }))
+        .displayName;
     else {
-      const g = await this.db.manager.findOne(Guardian, { where: { organisationId: link.organisationId!, email: link.guardianEmail! } });
+      const g = await this.db.manager.findOne(Guardian, {
+        where: { organisationId: link.organisationId!, email: link.guardianEmail! },
+      });
       displayName = g?.name ?? '';
     }
-    return { purpose: link.purpose, displayName, organisationName: org?.name ?? null, expiresAt: link.expiresAt!.toISOString() };
+    return {
+      purpose: link.purpose,
+      displayName,
+      organisationName: org?.name ?? null,
+      expiresAt: link.expiresAt!.toISOString(),
+    };
   }
 
   /** Accepting an invitation and resetting a password both set the password through a link. */
-  async setPassword(input: SetPasswordInput, purpose: 'invitation' | 'password_reset'): Promise<AccountMessage> {
+  async setPassword(
+    input: SetPasswordInput,
+    purpose: 'invitation' | 'password_reset',
+  ): Promise<AccountMessage> {
     const personId = await this.db.transaction(async (em) => {
       const link = await this.findLive(em, input.token, true);
       if (link.purpose !== purpose || !link.personId) throw invalid(LINK_GONE);
@@ -86,10 +110,19 @@ export class InvitationsService {
       // Any other outstanding link of this person is now pointless.
       await em.update(
         AccountToken,
-        { personId: link.personId, usedAt: IsNull(), revokedAt: IsNull(), purpose: In(['invitation', 'password_reset']) },
+        {
+          personId: link.personId,
+          usedAt: IsNull(),
+          revokedAt: IsNull(),
+          purpose: In(['invitation', 'password_reset']),
+        },
         { revokedAt: at },
       );
-      await em.update(Person, { id: link.personId }, { passwordHash: await hashPassword(input.password) });
+      await em.update(
+        Person,
+        { id: link.personId },
+        { passwordHash: await hashPassword(input.password) },
+      );
       if (link.organisationId) {
         await this.recordAs(em, link.personId, link.organisationId, {
           action: purpose === 'invitation' ? 'invitation.accepted' : 'password.reset',
@@ -124,7 +157,12 @@ export class InvitationsService {
           { revokedAt: now() },
         );
         const [link] = await this.createLinks(em, [
-          { purpose: 'password_reset', personId: person.id, organisationId: null, guardianEmail: null },
+          {
+            purpose: 'password_reset',
+            personId: person.id,
+            organisationId: null,
+            guardianEmail: null,
+          },
         ]);
         await this.mail.enqueue(em, [
           {
@@ -168,7 +206,11 @@ export class InvitationsService {
       const guardians = await this.guardiansOf(em, link);
       const byStudent = new Map(guardians.map((g) => [g.studentId, g]));
       const answered = new Set(input.answers.map((a) => a.studentId));
-      if (answered.size !== input.answers.length || input.answers.some((a) => !byStudent.has(a.studentId)) || answered.size !== byStudent.size) {
+      if (
+        answered.size !== input.answers.length ||
+        input.answers.some((a) => !byStudent.has(a.studentId)) ||
+        answered.size !== byStudent.size
+      ) {
         throw invalid('Please answer both questions for each child listed.');
       }
       const at = now();
@@ -177,14 +219,24 @@ export class InvitationsService {
         await em.update(
           Guardian,
           { id: g.id },
-          { consentResultsEmail: a.consentResultsEmail, consentRecordings: a.consentRecordings, consentAnsweredAt: at },
+          {
+            consentResultsEmail: a.consentResultsEmail,
+            consentRecordings: a.consentRecordings,
+            consentAnsweredAt: at,
+          },
         );
         await this.recordAs(em, null, link.organisationId!, {
           action: 'guardian.consent',
           entity: 'guardian',
           entityId: g.id,
-          before: { consentResultsEmail: g.consentResultsEmail, consentRecordings: g.consentRecordings },
-          after: { consentResultsEmail: a.consentResultsEmail, consentRecordings: a.consentRecordings },
+          before: {
+            consentResultsEmail: g.consentResultsEmail,
+            consentRecordings: g.consentRecordings,
+          },
+          after: {
+            consentResultsEmail: a.consentResultsEmail,
+            consentRecordings: a.consentRecordings,
+          },
         });
       }
       await em.update(AccountToken, { id: link.id }, { usedAt: at });
@@ -194,7 +246,12 @@ export class InvitationsService {
 
   private async findLive(em: EntityManager, token: string, lock = false): Promise<AccountToken> {
     const link = await em.findOne(AccountToken, {
-      where: { tokenHash: hashLinkToken(token), usedAt: IsNull(), revokedAt: IsNull(), expiresAt: MoreThan(now()) },
+      where: {
+        tokenHash: hashLinkToken(token),
+        usedAt: IsNull(),
+        revokedAt: IsNull(),
+        expiresAt: MoreThan(now()),
+      },
       ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}),
     });
     if (!link) throw invalid(LINK_GONE);
@@ -203,7 +260,11 @@ export class InvitationsService {
 
   private guardiansOf(em: EntityManager, link: AccountToken): Promise<Guardian[]> {
     return em.find(Guardian, {
-      where: { organisationId: link.organisationId!, email: link.guardianEmail!, student: { active: true } },
+      where: {
+        organisationId: link.organisationId!,
+        email: link.guardianEmail!,
+        student: { active: true },
+      },
       relations: { student: true },
       order: { student: { dateOfBirth: 'ASC' } },
     });
@@ -221,13 +282,13 @@ export class InvitationsService {
   ): Promise<void> {
     await em.save(
       em.create(AuditEvent, {
-      organisationId,
-      actorPersonId: personId,
-      action: change.action,
-      entity: change.entity,
-      entityId: change.entityId,
-      before: (change.before as Record<string, unknown> | undefined) ?? null,
-      after: (change.after as Record<string, unknown> | undefined) ?? null,
+        organisationId,
+        actorPersonId: personId,
+        action: change.action,
+        entity: change.entity,
+        entityId: change.entityId,
+        before: (change.before as Record<string, unknown> | undefined) ?? null,
+        after: (change.after as Record<string, unknown> | undefined) ?? null,
       }),
     );
   }

@@ -1,5 +1,10 @@
 import { Inject, Injectable, type ExecutionContext } from '@nestjs/common';
-import { ThrottlerException, ThrottlerGuard, type ThrottlerLimitDetail, type ThrottlerRequest } from '@nestjs/throttler';
+import {
+  ThrottlerException,
+  ThrottlerGuard,
+  type ThrottlerLimitDetail,
+  type ThrottlerRequest,
+} from '@nestjs/throttler';
 import type { Request, Response } from 'express';
 import { ENV } from '../config/config.module.js';
 import type { Env } from '../config/env.js';
@@ -29,18 +34,26 @@ export class LinkThrottlerGuard extends ThrottlerGuard {
     return r.ip ?? r.socket.remoteAddress ?? 'unknown';
   }
 
-  protected override generateKey(context: ExecutionContext, tracker: string, throttlerName: string): string {
+  protected override generateKey(
+    context: ExecutionContext,
+    tracker: string,
+    throttlerName: string,
+  ): string {
     const route = `link:${context.getHandler().name}`;
     if (throttlerName !== 'email') return `${route}:client:${tracker}`;
     return `${route}:email:${tracker}:${this.emailOf(context)}`;
   }
 
   private emailOf(context: ExecutionContext): string {
-    const body = context.switchToHttp().getRequest<Request>().body as { email?: unknown } | undefined;
+    const body = context.switchToHttp().getRequest<Request>().body as
+      { email?: unknown } | undefined;
     return typeof body?.email === 'string' ? body.email.trim().toLowerCase() : '';
   }
 
-  protected override async throwThrottlingException(context: ExecutionContext, detail: ThrottlerLimitDetail): Promise<void> {
+  protected override async throwThrottlingException(
+    context: ExecutionContext,
+    detail: ThrottlerLimitDetail,
+  ): Promise<void> {
     const res = context.switchToHttp().getResponse<Response>();
     const wait = Math.max(1, Math.ceil(detail.timeToBlockExpire));
     res.setHeader('Retry-After', String(wait));

@@ -13,9 +13,12 @@ export type MailJobHandler = (jobs: PgBoss.JobWithMetadata<MailJob>[]) => Promis
 /** pg-boss runs SQL through this: inside our transaction, so a rolled-back change queues nothing. */
 function inTransaction(em: EntityManager): PgBoss.Db {
   const runner = em.queryRunner;
-  if (!runner?.isTransactionActive) throw new Error('Mail is queued only inside the transaction of the change that causes it');
+  if (!runner?.isTransactionActive)
+    throw new Error('Mail is queued only inside the transaction of the change that causes it');
   return {
-    executeSql: async (text: string, values: unknown[]) => ({ rows: (await runner.query(text, values, true)).records as unknown[] }),
+    executeSql: async (text: string, values: unknown[]) => ({
+      rows: (await runner.query(text, values, true)).records as unknown[],
+    }),
   };
 }
 
@@ -76,12 +79,18 @@ export class MailQueue implements OnApplicationShutdown {
         .then(async () => {
           this.workerId = await this.boss.work<MailJob>(
             MAIL_QUEUE,
-            { includeMetadata: true, batchSize: 10, pollingIntervalSeconds: this.env.MAIL_POLL_SECONDS },
+            {
+              includeMetadata: true,
+              batchSize: 10,
+              pollingIntervalSeconds: this.env.MAIL_POLL_SECONDS,
+            },
             handler,
           );
         })
         .catch((err: unknown) => {
-          this.logger.warn(`mail worker not started yet (${err instanceof Error ? err.message : String(err)}); retrying in 5 s`);
+          this.logger.warn(
+            `mail worker not started yet (${err instanceof Error ? err.message : String(err)}); retrying in 5 s`,
+          );
           setTimeout(attempt, 5000).unref();
         });
     };
@@ -105,7 +114,9 @@ export class MailQueue implements OnApplicationShutdown {
   }
 
   async fail(jobId: string, err: unknown): Promise<void> {
-    await this.boss.fail(MAIL_QUEUE, jobId, { message: err instanceof Error ? err.message : String(err) });
+    await this.boss.fail(MAIL_QUEUE, jobId, {
+      message: err instanceof Error ? err.message : String(err),
+    });
   }
 
   /** For tests and the Outbox: the pg-boss view of one job. */

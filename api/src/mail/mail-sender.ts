@@ -7,7 +7,12 @@ import { now } from '../common/clock.js';
 import { ENV } from '../config/config.module.js';
 import type { Env } from '../config/env.js';
 import { AccountToken } from '../invitations/entities/account-token.entity.js';
-import { hashLinkToken, linkLifetimeMs, linkUrl, newLinkToken } from '../invitations/link-tokens.js';
+import {
+  hashLinkToken,
+  linkLifetimeMs,
+  linkUrl,
+  newLinkToken,
+} from '../invitations/link-tokens.js';
 import { OutboundMail } from './entities/outbound-mail.entity.js';
 import { MailQueue, type MailJob } from './mail-queue.js';
 import { lifetimeWords, renderMail, type LinkFacts, type MailData } from './templates.js';
@@ -46,14 +51,19 @@ export class MailSender implements OnApplicationBootstrap {
       try {
         await this.sendOne(job.data.mailId, job.retryCount >= job.retryLimit);
       } catch (err) {
-        this.logger.warn(`mail ${job.data.mailId}: attempt ${job.retryCount + 1} failed: ${(err as Error).message}`);
+        this.logger.warn(
+          `mail ${job.data.mailId}: attempt ${job.retryCount + 1} failed: ${(err as Error).message}`,
+        );
         await this.queue.fail(job.id, err);
       }
     }
   }
 
   async sendOne(mailId: string, lastTry: boolean): Promise<void> {
-    const mail = await this.mails.findOne({ where: { id: mailId }, relations: { accountToken: true } });
+    const mail = await this.mails.findOne({
+      where: { id: mailId },
+      relations: { accountToken: true },
+    });
     if (!mail || mail.status === 'sent' || mail.status === 'cancelled') return;
     await this.mails.update({ id: mail.id }, { status: 'sending', attempts: () => 'attempts + 1' });
 
@@ -61,7 +71,13 @@ export class MailSender implements OnApplicationBootstrap {
     if (mail.accountToken) {
       link = await this.mintLink(mail.accountToken);
       if (!link) {
-        await this.mails.update({ id: mail.id }, { status: 'cancelled', lastError: 'The link was already used or replaced; nothing to send.' });
+        await this.mails.update(
+          { id: mail.id },
+          {
+            status: 'cancelled',
+            lastError: 'The link was already used or replaced; nothing to send.',
+          },
+        );
         return;
       }
     }
@@ -76,12 +92,22 @@ export class MailSender implements OnApplicationBootstrap {
       })) as { messageId?: string };
       await this.mails.update(
         { id: mail.id },
-        { status: 'sent', sentAt: new Date(), messageId: info.messageId ?? null, subject: rendered.subject, lastError: null },
+        {
+          status: 'sent',
+          sentAt: new Date(),
+          messageId: info.messageId ?? null,
+          subject: rendered.subject,
+          lastError: null,
+        },
       );
     } catch (err) {
       await this.mails.update(
         { id: mail.id },
-        { status: lastTry ? 'failed' : 'retrying', subject: rendered.subject, lastError: (err as Error).message.slice(0, 500) },
+        {
+          status: lastTry ? 'failed' : 'retrying',
+          subject: rendered.subject,
+          lastError: (err as Error).message.slice(0, 500),
+        },
       );
       throw err;
     }

@@ -22,9 +22,17 @@ async function freePort(): Promise<number> {
 }
 
 describe('e-mail templates', () => {
-  const link = { url: 'http://localhost:3000/account/welcome#token=abc', forgotUrl: 'http://localhost:3000/account/forgot-password', lifetime: '72 hours' };
+  const link = {
+    url: 'http://localhost:3000/account/welcome#token=abc',
+    forgotUrl: 'http://localhost:3000/account/forgot-password',
+    lifetime: '72 hours',
+  };
   it('text and HTML parts; names are escaped in HTML', () => {
-    const m = renderMail('invitation', { organisationName: 'Kestrel <Lane> & Co', displayName: 'Ada "A" Pendry' }, link);
+    const m = renderMail(
+      'invitation',
+      { organisationName: 'Kestrel <Lane> & Co', displayName: 'Ada "A" Pendry' },
+      link,
+    );
     expect(m.subject).toBe('Welcome to Stavemark at Kestrel <Lane> & Co');
     expect(m.text).toContain('Hello Ada "A" Pendry,');
     expect(m.text).toContain(link.url);
@@ -50,7 +58,10 @@ describe('outbound mail: written with the change, sent after commit, retried wit
     port = await freePort();
     dir = await mkdtemp(join(tmpdir(), 'stavemark-retry-'));
     // Nothing listens on the SMTP port yet, so the first attempt fails.
-    t = await createTestApp({ seed: false, env: { SMTP_PORT: String(port), MAIL_RETRY_DELAY_SECONDS: '1', MAIL_POLL_SECONDS: '0.5' } });
+    t = await createTestApp({
+      seed: false,
+      env: { SMTP_PORT: String(port), MAIL_RETRY_DELAY_SECONDS: '1', MAIL_POLL_SECONDS: '0.5' },
+    });
   });
   afterAll(async () => {
     await t?.close();
@@ -63,28 +74,51 @@ describe('outbound mail: written with the change, sent after commit, retried wit
     await expect(
       t.db.transaction(async (em) => {
         await mail.enqueue(em, [
-          { organisationId: null, kind: 'password_reset', toAddress: 'x@demo.example', toName: 'X', data: { displayName: 'X' }, accountTokenId: null },
+          {
+            organisationId: null,
+            kind: 'password_reset',
+            toAddress: 'x@demo.example',
+            toName: 'X',
+            data: { displayName: 'X' },
+            accountTokenId: null,
+          },
         ]);
         throw new Error('the change failed');
       }),
     ).rejects.toThrow('the change failed');
     expect(await t.db.getRepository(OutboundMail).count()).toBe(0);
-    const jobs = (await t.db.query(`SELECT count(*)::int AS n FROM pgboss.job WHERE name = 'outbound-mail'`)) as { n: number }[];
+    const jobs = (await t.db.query(
+      `SELECT count(*)::int AS n FROM pgboss.job WHERE name = 'outbound-mail'`,
+    )) as { n: number }[];
     expect(jobs[0]!.n).toBe(0);
   });
 
   it('refuses to queue outside a transaction', async () => {
-    await expect(t.app.get(MailQueue).enqueue(t.db.manager, ['00000000-0000-4000-8000-000000000000'])).rejects.toThrow(/inside the transaction/);
+    await expect(
+      t.app.get(MailQueue).enqueue(t.db.manager, ['00000000-0000-4000-8000-000000000000']),
+    ).rejects.toThrow(/inside the transaction/);
   });
 
   it('a failed send is marked retrying and sent once the SMTP server answers', async () => {
     const mail = t.app.get(MailService);
     // A reset mail carries a link; without a token row the template refuses, so use one.
-    const [person] = (await t.db.query(`INSERT INTO people (email, display_name) VALUES ('retry@demo.example', 'Rita Retry') RETURNING id`)) as { id: string }[];
-    const [tok] = (await t.db.query(`INSERT INTO account_tokens (purpose, person_id) VALUES ('password_reset', $1) RETURNING id`, [person!.id])) as { id: string }[];
+    const [person] = (await t.db.query(
+      `INSERT INTO people (email, display_name) VALUES ('retry@demo.example', 'Rita Retry') RETURNING id`,
+    )) as { id: string }[];
+    const [tok] = (await t.db.query(
+      `INSERT INTO account_tokens (purpose, person_id) VALUES ('password_reset', $1) RETURNING id`,
+      [person!.id],
+    )) as { id: string }[];
     const [id] = await t.db.transaction((em) =>
       mail.enqueue(em, [
-        { organisationId: null, kind: 'password_reset', toAddress: 'retry@demo.example', toName: 'Rita Retry', data: { displayName: 'Rita Retry' }, accountTokenId: tok!.id },
+        {
+          organisationId: null,
+          kind: 'password_reset',
+          toAddress: 'retry@demo.example',
+          toName: 'Rita Retry',
+          data: { displayName: 'Rita Retry' },
+          accountTokenId: tok!.id,
+        },
       ]),
     );
     mail.afterCommit();
@@ -97,7 +131,10 @@ describe('outbound mail: written with the change, sent after commit, retried wit
     }
     expect(row).toMatchObject({ status: 'retrying', attempts: 1 });
     expect(row.lastError).toMatch(/ECONNREFUSED|connect/i);
-    const [job] = (await t.db.query(`SELECT state, retry_count, start_after > now() AS later FROM pgboss.job WHERE data->>'mailId' = $1`, [id])) as {
+    const [job] = (await t.db.query(
+      `SELECT state, retry_count, start_after > now() AS later FROM pgboss.job WHERE data->>'mailId' = $1`,
+      [id],
+    )) as {
       state: string;
       retry_count: number;
       later: boolean;
@@ -107,10 +144,15 @@ describe('outbound mail: written with the change, sent after commit, retried wit
 
     // The SMTP server comes back; the retry (after pg-boss's back-off) delivers it.
     catcher = await startMailCatcher({ dir, port });
-    const caught = await waitForCaughtMail(dir, (m) => m.envelope.to.includes('retry@demo.example'), { timeoutMs: 15_000 });
+    const caught = await waitForCaughtMail(
+      dir,
+      (m) => m.envelope.to.includes('retry@demo.example'),
+      { timeoutMs: 15_000 },
+    );
     expect(caught.subject).toBe('Choose a new Stavemark password');
     const deadline2 = Date.now() + 5000;
-    while ((await repo.findOneByOrFail({ id: id! })).status !== 'sent' && Date.now() < deadline2) await new Promise((r) => setTimeout(r, 100));
+    while ((await repo.findOneByOrFail({ id: id! })).status !== 'sent' && Date.now() < deadline2)
+      await new Promise((r) => setTimeout(r, 100));
     const sent = await repo.findOneByOrFail({ id: id! });
     expect(sent).toMatchObject({ status: 'sent', lastError: null, messageId: caught.messageId });
     expect(sent.attempts).toBeGreaterThanOrEqual(2);

@@ -30,7 +30,10 @@ export interface LinkFacts {
 }
 
 const escapeHtml = (s: string): string =>
-  s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] as string);
+  s.replace(
+    /[&<>"']/g,
+    (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] as string,
+  );
 
 /** "Ada", "Ada and Bram", "Ada, Bram and Cleo". */
 export function listNames(names: string[]): string {
@@ -39,8 +42,13 @@ export function listNames(names: string[]): string {
 }
 
 /** One message as paragraphs; a paragraph that is exactly the link becomes a button in HTML. */
-function compose(subject: string, paragraphs: (string | { link: LinkFacts; label: string })[]): RenderedMail {
-  const text = paragraphs.map((p) => (typeof p === 'string' ? p : `${p.label}:\n${p.link.url}`)).join('\n\n') + '\n';
+function compose(
+  subject: string,
+  paragraphs: (string | { link: LinkFacts; label: string })[],
+): RenderedMail {
+  const text =
+    paragraphs.map((p) => (typeof p === 'string' ? p : `${p.label}:\n${p.link.url}`)).join('\n\n') +
+    '\n';
   const body = paragraphs
     .map((p) =>
       typeof p === 'string'

@@ -13,7 +13,8 @@ export class OutboxController {
   @Route({
     summary: 'E-mails the local mail catcher received, rendered (not in production)',
     roles: ['admin'],
-    description: 'Only the organisation’s own mail. This route does not exist when NODE_ENV=production.',
+    description:
+      'Only the organisation’s own mail. This route does not exist when NODE_ENV=production.',
   })
   list(): Promise<OutboxList> {
     return this.outbox.list();

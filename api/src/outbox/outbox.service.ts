@@ -40,7 +40,17 @@ export class OutboxService {
     for (const m of caught) {
       const row = m.messageId ? ours.get(m.messageId) : undefined;
       if (!row) continue;
-      items.push({ id: m.id, receivedAt: m.receivedAt, to: m.to, subject: m.subject, text: m.text, html: m.html, kind: row.kind, status: row.status, attempts: row.attempts });
+      items.push({
+        id: m.id,
+        receivedAt: m.receivedAt,
+        to: m.to,
+        subject: m.subject,
+        text: m.text,
+        html: m.html,
+        kind: row.kind,
+        status: row.status,
+        attempts: row.attempts,
+      });
     }
     // Newest first, at most 200.
     return { catcher: true, items: items.reverse().slice(0, 200) };

@@ -26,16 +26,31 @@ export class StudentsService {
     const visible = await this.classes.visibleClassIds();
     const qb = this.students.qb('s').leftJoinAndSelect('s.guardians', 'g');
     if (visible) {
-      qb.andWhere('EXISTS (SELECT 1 FROM class_members cm WHERE cm.student_id = s.id AND cm.class_id = ANY(:ids))', { ids: [...visible] });
+      qb.andWhere(
+        'EXISTS (SELECT 1 FROM class_members cm WHERE cm.student_id = s.id AND cm.class_id = ANY(:ids))',
+        { ids: [...visible] },
+      );
     }
     if (q.search) {
-      qb.andWhere("(s.givenName || ' ' || s.familyName ILIKE :s OR s.pupilNumber ILIKE :s)", { s: `%${q.search.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
+      qb.andWhere("(s.givenName || ' ' || s.familyName ILIKE :s OR s.pupilNumber ILIKE :s)", {
+        s: `%${q.search.replace(/[\\%_]/g, (c) => `\\${c}`)}%`,
+      });
     }
     if (q.notInClassId) {
-      qb.andWhere('NOT EXISTS (SELECT 1 FROM class_members cm2 WHERE cm2.student_id = s.id AND cm2.class_id = :nc)', { nc: q.notInClassId });
+      qb.andWhere(
+        'NOT EXISTS (SELECT 1 FROM class_members cm2 WHERE cm2.student_id = s.id AND cm2.class_id = :nc)',
+        { nc: q.notInClassId },
+      );
     }
-    const rows = await qb.orderBy('s.familyName', 'ASC').addOrderBy('s.givenName', 'ASC').take(50).getMany();
-    const codes = await this.classes.classCodesOf(rows.map((r) => r.id), visible);
+    const rows = await qb
+      .orderBy('s.familyName', 'ASC')
+      .addOrderBy('s.givenName', 'ASC')
+      .take(50)
+      .getMany();
+    const codes = await this.classes.classCodesOf(
+      rows.map((r) => r.id),
+      visible,
+    );
     return rows.map((s) => toStudentRow(s, codes.get(s.id) ?? []));
   }
 
@@ -45,7 +60,16 @@ export class StudentsService {
       const before = { active: s.active };
       s.active = input.active;
       await this.students.withManager(em).save(s);
-      await this.audit.record({ action: input.active ? 'student.reactivated' : 'student.deactivated', entity: 'student', entityId: s.id, before, after: { active: s.active } }, em);
+      await this.audit.record(
+        {
+          action: input.active ? 'student.reactivated' : 'student.deactivated',
+          entity: 'student',
+          entityId: s.id,
+          before,
+          after: { active: s.active },
+        },
+        em,
+      );
     });
     const s = await this.students.getById(id, { relations: { guardians: true } });
     const codes = await this.classes.classCodesOf([id], await this.classes.visibleClassIds());

@@ -28,9 +28,16 @@ export const classCodeSchema = z
   .trim()
   .min(1, 'Enter a class code.')
   .max(40, 'Use at most 40 characters.')
-  .regex(/^[\p{L}\p{N}][\p{L}\p{N} ._/-]*$/u, 'Use letters, digits, spaces and . _ / - (starting with a letter or digit).');
+  .regex(
+    /^[\p{L}\p{N}][\p{L}\p{N} ._/-]*$/u,
+    'Use letters, digits, spaces and . _ / - (starting with a letter or digit).',
+  );
 
-const classNameSchema = z.string().trim().min(1, 'Enter a name.').max(120, 'Use at most 120 characters.');
+const classNameSchema = z
+  .string()
+  .trim()
+  .min(1, 'Enter a name.')
+  .max(120, 'Use at most 120 characters.');
 const gradeSchema = z.number().int().min(0).max(12).nullable();
 
 export const createClassSchema = z.strictObject({
@@ -61,7 +68,10 @@ export const addClassMemberSchema = z.strictObject({
 export type AddClassMemberInput = z.infer<typeof addClassMemberSchema>;
 
 export const listClassesQuerySchema = z.strictObject({
-  active: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
+  active: z
+    .enum(['true', 'false'])
+    .transform((v) => v === 'true')
+    .optional(),
 });
 export type ListClassesQuery = z.infer<typeof listClassesQuerySchema>;
 

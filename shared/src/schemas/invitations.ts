@@ -10,7 +10,10 @@ export const linkTokenSchema = z
 export const linkTokenInputSchema = z.strictObject({ token: linkTokenSchema });
 export type LinkTokenInput = z.infer<typeof linkTokenInputSchema>;
 
-export const setPasswordSchema = z.strictObject({ token: linkTokenSchema, password: passwordSchema });
+export const setPasswordSchema = z.strictObject({
+  token: linkTokenSchema,
+  password: passwordSchema,
+});
 export type SetPasswordInput = z.infer<typeof setPasswordSchema>;
 
 export const forgotPasswordSchema = z.strictObject({ email: emailSchema });

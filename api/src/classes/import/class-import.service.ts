@@ -44,7 +44,15 @@ interface Plan {
   guardianRenames: { id: string; name: string }[];
   classJoins: { key: StudentKey; classCode: string }[];
   /** Sign-ins for new students with an e-mail. */
-  signIns: { pupilNumber: string; email: string; displayName: string; personId: string | null; membershipId: string | null; addRole: boolean; invite: boolean }[];
+  signIns: {
+    pupilNumber: string;
+    email: string;
+    displayName: string;
+    personId: string | null;
+    membershipId: string | null;
+    addRole: boolean;
+    invite: boolean;
+  }[];
   notices: { email: string; name: string; children: string[] }[];
 }
 
@@ -70,13 +78,17 @@ export class ClassImportService {
    * written only when no row has an error (all or nothing, design.md §7); the e-mails it causes
    * are rows in that transaction and go out after commit.
    */
-  async import(file: { buffer: Buffer; originalname: string }, dryRun: boolean): Promise<ImportReport> {
+  async import(
+    file: { buffer: Buffer; originalname: string },
+    dryRun: boolean,
+  ): Promise<ImportReport> {
     const caller = RequestContext.requireCaller();
     let parsed;
     try {
       parsed = parseClassList(file.buffer);
     } catch (err) {
-      if (err instanceof CsvFileError) throw invalid(err.message, [{ path: 'file', message: err.message }]);
+      if (err instanceof CsvFileError)
+        throw invalid(err.message, [{ path: 'file', message: err.message }]);
       throw err;
     }
     const fileName = file.originalname || 'class-list.csv';
@@ -87,14 +99,19 @@ export class ClassImportService {
     try {
       const report = await this.db.transaction(async (em) => {
         // One import per organisation at a time, so the analysis stays true until commit.
-        await em.query(`SELECT pg_advisory_xact_lock(hashtext($1))`, [`class-import:${caller.organisationId}`]);
+        await em.query(`SELECT pg_advisory_xact_lock(hashtext($1))`, [
+          `class-import:${caller.organisationId}`,
+        ]);
         const plan = await this.analyse(em, caller, parsed.records, parsed.delimiter);
         const full: ImportReport = { ...plan.report, dryRun: false, applied: false, fileName };
         if (plan.report.counts.error > 0) {
           const n = plan.report.counts.error;
-          throw invalid(`${n} row${n === 1 ? ' has an error' : 's have errors'}, so nothing was imported. Correct the file and upload it again.`, {
-            report: full,
-          });
+          throw invalid(
+            `${n} row${n === 1 ? ' has an error' : 's have errors'}, so nothing was imported. Correct the file and upload it again.`,
+            {
+              report: full,
+            },
+          );
         }
         await this.apply(em, caller, plan, fileName);
         return { ...full, applied: true };
@@ -102,14 +119,24 @@ export class ClassImportService {
       this.mail.afterCommit();
       return report;
     } catch (err) {
-      if (err instanceof QueryFailedError && (err as QueryFailedError & { code?: string }).code === '23505') {
-        throw conflict('These students were changed by someone else at the same moment. Nothing was imported; please run the import again.');
+      if (
+        err instanceof QueryFailedError &&
+        (err as QueryFailedError & { code?: string }).code === '23505'
+      ) {
+        throw conflict(
+          'These students were changed by someone else at the same moment. Nothing was imported; please run the import again.',
+        );
       }
       throw err;
     }
   }
 
-  private async analyse(em: EntityManager, caller: Caller, records: ReturnType<typeof parseClassList>['records'], delimiter: ',' | ';'): Promise<Plan> {
+  private async analyse(
+    em: EntityManager,
+    caller: Caller,
+    records: ReturnType<typeof parseClassList>['records'],
+    delimiter: ',' | ';',
+  ): Promise<Plan> {
     const org = await em.findOneByOrFail(Organisation, { id: caller.organisationId });
     const importDate = localDate(now(), org.timeZone);
     const isAdmin = caller.roles.includes('admin');
@@ -125,29 +152,45 @@ export class ClassImportService {
       return lines;
     };
     const pupilLines = firstLine((i) => checks[i]!.display.pupilNumber || null);
-    const emailLines = firstLine((i) => (records[i]!.cells.studentEmail ?? '').trim().toLowerCase() || null);
+    const emailLines = firstLine(
+      (i) => (records[i]!.cells.studentEmail ?? '').trim().toLowerCase() || null,
+    );
     checks.forEach((c, i) => {
       const line = records[i]!.line;
-      const others = (m: Map<string, number[]>, k: string) => (m.get(k) ?? []).filter((l) => l !== line);
+      const others = (m: Map<string, number[]>, k: string) =>
+        (m.get(k) ?? []).filter((l) => l !== line);
       const pn = c.display.pupilNumber;
-      if (pn && others(pupilLines, pn).length) c.errors.push(`Pupil number ${pn} is in the file more than once (also line ${others(pupilLines, pn).join(', ')}).`);
+      if (pn && others(pupilLines, pn).length)
+        c.errors.push(
+          `Pupil number ${pn} is in the file more than once (also line ${others(pupilLines, pn).join(', ')}).`,
+        );
       const em_ = (records[i]!.cells.studentEmail ?? '').trim().toLowerCase();
-      if (em_ && others(emailLines, em_).length) c.errors.push(`Student e-mail ${em_} is in the file more than once (also line ${others(emailLines, em_).join(', ')}).`);
+      if (em_ && others(emailLines, em_).length)
+        c.errors.push(
+          `Student e-mail ${em_} is in the file more than once (also line ${others(emailLines, em_).join(', ')}).`,
+        );
       if (c.errors.length) c.row = null;
     });
 
     const rows = checks.map((c) => c.row).filter((r): r is CheckedRow => r !== null);
-    const scoped = { students: this.students.withManager(em), classes: this.classes.withManager(em) };
+    const scoped = {
+      students: this.students.withManager(em),
+      classes: this.classes.withManager(em),
+    };
 
     // Everything the rows refer to, in a handful of queries.
     const pupilNumbers = rows.map((r) => r.pupilNumber).filter((p): p is string => !!p);
     const studentEmails = rows.map((r) => r.studentEmail).filter((e): e is string => !!e);
-    const found = pupilNumbers.length || studentEmails.length
-      ? await scoped.students
-          .qb('s')
-          .andWhere('(s.pupilNumber = ANY(:pns) OR s.email = ANY(:emails))', { pns: pupilNumbers, emails: studentEmails })
-          .getMany()
-      : [];
+    const found =
+      pupilNumbers.length || studentEmails.length
+        ? await scoped.students
+            .qb('s')
+            .andWhere('(s.pupilNumber = ANY(:pns) OR s.email = ANY(:emails))', {
+              pns: pupilNumbers,
+              emails: studentEmails,
+            })
+            .getMany()
+        : [];
     const known = new Map<string, KnownStudent>();
     for (const s of found) {
       known.set(s.id, {
@@ -168,10 +211,17 @@ export class ClassImportService {
       const guardians = await em
         .getRepository(Guardian)
         .createQueryBuilder('g')
-        .where('g.organisationId = :org AND g.studentId = ANY(:ids)', { org: caller.organisationId, ids })
+        .where('g.organisationId = :org AND g.studentId = ANY(:ids)', {
+          org: caller.organisationId,
+          ids,
+        })
         .getMany();
-      for (const g of guardians) known.get(g.studentId)!.guardians.push({ id: g.id, name: g.name, email: g.email });
-      const memberships = (await em.query(`SELECT class_id, student_id FROM class_members WHERE student_id = ANY($1)`, [ids])) as {
+      for (const g of guardians)
+        known.get(g.studentId)!.guardians.push({ id: g.id, name: g.name, email: g.email });
+      const memberships = (await em.query(
+        `SELECT class_id, student_id FROM class_members WHERE student_id = ANY($1)`,
+        [ids],
+      )) as {
         class_id: string;
         student_id: string;
       }[];
@@ -182,14 +232,18 @@ export class ClassImportService {
     for (const s of known.values()) if (s.email) byEmail.set(s.email, s);
 
     const codes = [...new Set(rows.map((r) => r.classCode))];
-    const classRows = codes.length ? await scoped.classes.qb('c').andWhere('c.code = ANY(:codes)', { codes }).getMany() : [];
+    const classRows = codes.length
+      ? await scoped.classes.qb('c').andWhere('c.code = ANY(:codes)', { codes }).getMany()
+      : [];
     const classByCode = new Map(classRows.map((c) => [c.code, c]));
     const mine = new Set(
       isAdmin
         ? []
-        : ((await em.query(`SELECT class_id FROM class_teachers WHERE membership_id = $1`, [caller.membershipId])) as { class_id: string }[]).map(
-            (r) => r.class_id,
-          ),
+        : (
+            (await em.query(`SELECT class_id FROM class_teachers WHERE membership_id = $1`, [
+              caller.membershipId,
+            ])) as { class_id: string }[]
+          ).map((r) => r.class_id),
     );
 
     const plan: Plan = {
@@ -218,7 +272,13 @@ export class ClassImportService {
 
     checks.forEach((check, i) => {
       const line = records[i]!.line;
-      const report: ImportRowReport = { line, status: 'error', ...check.display, changes: [], errors: check.errors };
+      const report: ImportRowReport = {
+        line,
+        status: 'error',
+        ...check.display,
+        changes: [],
+        errors: check.errors,
+      };
       plan.report.rows.push(report);
       const row = check.row;
       if (!row) {
@@ -231,19 +291,33 @@ export class ClassImportService {
       // The class: one of the caller's, or a new code (created on apply).
       const cls = classByCode.get(row.classCode);
       if (cls && !isAdmin && !mine.has(cls.id)) {
-        errors.push(`Class ${row.classCode} is taught by other teachers, so you cannot import into it. Check the code, or ask an administrator.`);
+        errors.push(
+          `Class ${row.classCode} is taught by other teachers, so you cannot import into it. Check the code, or ask an administrator.`,
+        );
       }
       if (!cls) newCodes.add(row.classCode);
 
       // Match by pupil number when given, else by student e-mail.
-      const existing = row.pupilNumber ? byPupil.get(row.pupilNumber) : row.studentEmail ? byEmail.get(row.studentEmail) : undefined;
-      if (!existing && !row.pupilNumber) errors.push(`No student here has the e-mail ${row.studentEmail}; a new student needs a pupil number.`);
+      const existing = row.pupilNumber
+        ? byPupil.get(row.pupilNumber)
+        : row.studentEmail
+          ? byEmail.get(row.studentEmail)
+          : undefined;
+      if (!existing && !row.pupilNumber)
+        errors.push(
+          `No student here has the e-mail ${row.studentEmail}; a new student needs a pupil number.`,
+        );
       if (row.studentEmail) {
         const holder = byEmail.get(row.studentEmail);
-        if (holder && holder !== existing) errors.push(`Student e-mail ${row.studentEmail} already belongs to pupil ${holder.pupilNumber}.`);
+        if (holder && holder !== existing)
+          errors.push(
+            `Student e-mail ${row.studentEmail} already belongs to pupil ${holder.pupilNumber}.`,
+          );
       }
       if (existing && !isAdmin && ![...existing.classIds].some((id) => mine.has(id))) {
-        errors.push(`Pupil number ${existing.pupilNumber} belongs to a student who is not in your classes. Check the number, or ask an administrator.`);
+        errors.push(
+          `Pupil number ${existing.pupilNumber} belongs to a student who is not in your classes. Check the number, or ask an administrator.`,
+        );
       }
       if (errors.length) {
         report.errors = errors;
@@ -267,7 +341,11 @@ export class ClassImportService {
           const g = existing.guardians.find((x) => x.email === row.guardianEmail);
           if (!g) {
             changes.push(`New guardian: ${row.guardianName} <${row.guardianEmail}>`);
-            plan.newGuardians.push({ key: { id: existing.id }, name: row.guardianName!, email: row.guardianEmail });
+            plan.newGuardians.push({
+              key: { id: existing.id },
+              name: row.guardianName!,
+              email: row.guardianEmail,
+            });
             if (row.minor) this.addNotice(notices, row, existing.givenName);
           } else if (g.name !== row.guardianName) {
             changes.push(`Guardian name: ${g.name} → ${row.guardianName}`);
@@ -285,7 +363,11 @@ export class ClassImportService {
         plan.newStudents.push(row);
         plan.classJoins.push({ key: { pupilNumber: row.pupilNumber! }, classCode: row.classCode });
         if (row.guardianEmail) {
-          plan.newGuardians.push({ key: { pupilNumber: row.pupilNumber! }, name: row.guardianName!, email: row.guardianEmail });
+          plan.newGuardians.push({
+            key: { pupilNumber: row.pupilNumber! },
+            name: row.guardianName!,
+            email: row.guardianEmail,
+          });
           if (row.minor) this.addNotice(notices, row, row.givenName);
         }
         if (row.studentEmail) pendingSignIns.push({ row, displayName: name });
@@ -303,14 +385,23 @@ export class ClassImportService {
            FROM people p LEFT JOIN memberships m ON m.person_id = p.id AND m.organisation_id = $2
           WHERE p.email = ANY($1)`,
         [emails, caller.organisationId],
-      )) as { id: string; email: string; has_password: boolean; membership_id: string | null; roles: string[] | null; linked: boolean }[];
+      )) as {
+        id: string;
+        email: string;
+        has_password: boolean;
+        membership_id: string | null;
+        roles: string[] | null;
+        linked: boolean;
+      }[];
       const personByEmail = new Map(people.map((p) => [p.email, p]));
       for (const { row, displayName } of pendingSignIns) {
         const p = personByEmail.get(row.studentEmail!);
         if (p?.linked) {
           const report = plan.report.rows.find((r) => r.line === row.line)!;
           report.status = 'error';
-          report.errors = [`Student e-mail ${row.studentEmail} is already the sign-in of another student here.`];
+          report.errors = [
+            `Student e-mail ${row.studentEmail} is already the sign-in of another student here.`,
+          ];
           plan.report.counts.new--;
           plan.report.counts.error++;
           continue;
@@ -335,14 +426,27 @@ export class ClassImportService {
     return plan;
   }
 
-  private addNotice(notices: Map<string, { email: string; name: string; children: string[] }>, row: CheckedRow, child: string): void {
-    const n = notices.get(row.guardianEmail!) ?? { email: row.guardianEmail!, name: row.guardianName!, children: [] };
+  private addNotice(
+    notices: Map<string, { email: string; name: string; children: string[] }>,
+    row: CheckedRow,
+    child: string,
+  ): void {
+    const n = notices.get(row.guardianEmail!) ?? {
+      email: row.guardianEmail!,
+      name: row.guardianName!,
+      children: [],
+    };
     n.children.push(child);
     notices.set(row.guardianEmail!, n);
   }
 
   /** Writes the plan with set-based statements (one per table), all in the caller's transaction. */
-  private async apply(em: EntityManager, caller: Caller, plan: Plan, fileName: string): Promise<void> {
+  private async apply(
+    em: EntityManager,
+    caller: Caller,
+    plan: Plan,
+    fileName: string,
+  ): Promise<void> {
     const org = caller.organisationId;
     const orgName = (await em.findOneByOrFail(Organisation, { id: org })).name;
 
@@ -350,7 +454,11 @@ export class ClassImportService {
     const classIdByCode = new Map<string, string>();
     if (plan.classJoins.length) {
       const codes = [...new Set(plan.classJoins.map((j) => j.classCode))];
-      const existing = await this.classes.withManager(em).qb('c').andWhere('c.code = ANY(:codes)', { codes }).getMany();
+      const existing = await this.classes
+        .withManager(em)
+        .qb('c')
+        .andWhere('c.code = ANY(:codes)', { codes })
+        .getMany();
       for (const c of existing) classIdByCode.set(c.code, c.id);
     }
     if (plan.newClassCodes.length) {
@@ -367,7 +475,10 @@ export class ClassImportService {
       );
       for (const c of created) classIdByCode.set(c.code!, c.id!);
       if (caller.roles.includes('teacher')) {
-        await em.query(`INSERT INTO class_teachers (class_id, membership_id) SELECT unnest($1::uuid[]), $2`, [created.map((c) => c.id), caller.membershipId]);
+        await em.query(
+          `INSERT INTO class_teachers (class_id, membership_id) SELECT unnest($1::uuid[]), $2`,
+          [created.map((c) => c.id), caller.membershipId],
+        );
       }
     }
 
@@ -399,7 +510,10 @@ export class ClassImportService {
     }
     const addRole = plan.signIns.filter((s) => s.addRole).map((s) => s.membershipId);
     if (addRole.length) {
-      await em.query(`UPDATE memberships SET roles = roles || ARRAY['student']::text[] WHERE organisation_id = $1 AND id = ANY($2)`, [org, addRole]);
+      await em.query(
+        `UPDATE memberships SET roles = roles || ARRAY['student']::text[] WHERE organisation_id = $1 AND id = ANY($2)`,
+        [org, addRole],
+      );
     }
     for (const s of plan.signIns) {
       membershipByPupil.set(s.pupilNumber, s.membershipId!);
@@ -454,7 +568,8 @@ export class ClassImportService {
         [org, ...[0, 1, 2, 3, 4, 5].map((k) => u.map((row) => row[k]))],
       );
     }
-    const idOf = (key: StudentKey): string => ('id' in key ? key.id : idByPupil.get(key.pupilNumber)!);
+    const idOf = (key: StudentKey): string =>
+      'id' in key ? key.id : idByPupil.get(key.pupilNumber)!;
 
     // Guardians and class places.
     await bulkInsert(
@@ -498,11 +613,23 @@ export class ClassImportService {
       );
     }
     const links = await this.invitations.createLinks(em, [
-      ...invites.map((s) => ({ purpose: 'invitation' as const, personId: s.personId!, organisationId: org, guardianEmail: null })),
-      ...plan.notices.map((n) => ({ purpose: 'guardian_consent' as const, personId: null, organisationId: org, guardianEmail: n.email })),
+      ...invites.map((s) => ({
+        purpose: 'invitation' as const,
+        personId: s.personId!,
+        organisationId: org,
+        guardianEmail: null,
+      })),
+      ...plan.notices.map((n) => ({
+        purpose: 'guardian_consent' as const,
+        personId: null,
+        organisationId: org,
+        guardianEmail: n.email,
+      })),
     ]);
     const linkByPerson = new Map(links.filter((l) => l.personId).map((l) => [l.personId!, l.id]));
-    const linkByGuardian = new Map(links.filter((l) => l.guardianEmail).map((l) => [l.guardianEmail!, l.id]));
+    const linkByGuardian = new Map(
+      links.filter((l) => l.guardianEmail).map((l) => [l.guardianEmail!, l.id]),
+    );
     for (const s of invites) {
       mails.push({
         organisationId: org,

@@ -1,7 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { stringify } from 'csv-stringify/sync';
 import { CLASS_IMPORT_MAX_ROWS, CLASS_LIST_COLUMNS } from '@stavemark/shared';
-import { checkCsvBytes, CsvFileError, detectDelimiter, firstInvalidUtf8, parseClassList, readRecords } from './class-list-csv.js';
+import {
+  checkCsvBytes,
+  CsvFileError,
+  detectDelimiter,
+  firstInvalidUtf8,
+  parseClassList,
+  readRecords,
+} from './class-list-csv.js';
 
 const bytes = (s: string): Uint8Array => new TextEncoder().encode(s);
 const records = (s: string, d: ',' | ';' = ',') => readRecords(bytes(s), d).map((r) => r.cells);
@@ -71,7 +78,9 @@ describe('what spreadsheets produce', () => {
   });
 
   it('header names in any case and order, with spaces, hyphens or underscores', () => {
-    const file = 'CLASS CODE,given_name,Family-Name,pupil number,date of birth,Guardian Email,guardian name\n' + 'WED-INT,Bram,Everleigh,KL2002,2016-02-08,jo@family.example,Jo Everleigh\n';
+    const file =
+      'CLASS CODE,given_name,Family-Name,pupil number,date of birth,Guardian Email,guardian name\n' +
+      'WED-INT,Bram,Everleigh,KL2002,2016-02-08,jo@family.example,Jo Everleigh\n';
     const r = parseClassList(bytes(file)).records[0]!;
     expect(r.cells).toEqual({
       classCode: 'WED-INT',
@@ -92,8 +101,21 @@ describe('what spreadsheets produce', () => {
   });
 
   it('what csv-stringify writes reads back the same (general-purpose library as the writer)', () => {
-    const cells = ['KL9', 'Zoë "Zo"', "O'Neill, Jr", '', '2010-01-01', 'Ana\nLee', 'ana@family.example', '', 'A'];
-    const text = stringify([CLASS_LIST_COLUMNS.map((c) => c.header), cells], { bom: true, record_delimiter: 'windows' });
+    const cells = [
+      'KL9',
+      'Zoë "Zo"',
+      "O'Neill, Jr",
+      '',
+      '2010-01-01',
+      'Ana\nLee',
+      'ana@family.example',
+      '',
+      'A',
+    ];
+    const text = stringify([CLASS_LIST_COLUMNS.map((c) => c.header), cells], {
+      bom: true,
+      record_delimiter: 'windows',
+    });
     const p = parseClassList(bytes(text));
     expect(Object.values(p.records[0]!.cells)).toEqual(cells);
   });
@@ -117,8 +139,14 @@ describe('bad files are refused whole, with a message that says what to do', () 
 
   it('Latin-1 text: says it is not UTF-8 and where, and imports no mojibake', () => {
     // "Zoë" in ISO-8859-1 is 5A 6F EB: EB starts a three-byte UTF-8 sequence that does not follow.
-    const latin1 = Uint8Array.from([...bytes(`${HEADER}\nKL1,Zo`), 0xeb, ...bytes(',Pendry,,2010-01-01,,,,A\n')]);
-    expect(refused(latin1)).toMatch(/not UTF-8 text: line 2 has the byte 0xEB.*Latin-1 or Windows-1252/);
+    const latin1 = Uint8Array.from([
+      ...bytes(`${HEADER}\nKL1,Zo`),
+      0xeb,
+      ...bytes(',Pendry,,2010-01-01,,,,A\n'),
+    ]);
+    expect(refused(latin1)).toMatch(
+      /not UTF-8 text: line 2 has the byte 0xEB.*Latin-1 or Windows-1252/,
+    );
   });
 
   it('a missing header (the first line is data)', () => {
@@ -126,8 +154,12 @@ describe('bad files are refused whole, with a message that says what to do', () 
   });
 
   it('a missing required column names it', () => {
-    const header = CLASS_LIST_COLUMNS.filter((c) => c.key !== 'dateOfBirth').map((c) => c.header).join(',');
-    expect(refused(`${header}\nKL1,Ada,Pendry,,Robin,r@family.example,1,A\n`)).toMatch(/no “Date of birth” column/);
+    const header = CLASS_LIST_COLUMNS.filter((c) => c.key !== 'dateOfBirth')
+      .map((c) => c.header)
+      .join(',');
+    expect(refused(`${header}\nKL1,Ada,Pendry,,Robin,r@family.example,1,A\n`)).toMatch(
+      /no “Date of birth” column/,
+    );
   });
 
   it('an extra, unknown column', () => {
@@ -139,17 +171,27 @@ describe('bad files are refused whole, with a message that says what to do', () 
   });
 
   it(`more than ${CLASS_IMPORT_MAX_ROWS} rows`, () => {
-    const rows = Array.from({ length: CLASS_IMPORT_MAX_ROWS + 1 }, (_, i) => ROW.replace('KL2001', `P${i}`));
-    expect(refused(`${HEADER}\n${rows.join('\n')}\n`)).toMatch(/5,001 rows of students; the limit is 5,000/);
+    const rows = Array.from({ length: CLASS_IMPORT_MAX_ROWS + 1 }, (_, i) =>
+      ROW.replace('KL2001', `P${i}`),
+    );
+    expect(refused(`${HEADER}\n${rows.join('\n')}\n`)).toMatch(
+      /5,001 rows of students; the limit is 5,000/,
+    );
   });
 
   it('exactly the limit is accepted', () => {
-    const rows = Array.from({ length: CLASS_IMPORT_MAX_ROWS }, (_, i) => ROW.replace('KL2001', `P${i}`));
-    expect(parseClassList(bytes(`${HEADER}\n${rows.join('\n')}\n`)).records).toHaveLength(CLASS_IMPORT_MAX_ROWS);
+    const rows = Array.from({ length: CLASS_IMPORT_MAX_ROWS }, (_, i) =>
+      ROW.replace('KL2001', `P${i}`),
+    );
+    expect(parseClassList(bytes(`${HEADER}\n${rows.join('\n')}\n`)).records).toHaveLength(
+      CLASS_IMPORT_MAX_ROWS,
+    );
   });
 
   it('more than 2 MB', () => {
-    expect(() => checkCsvBytes(new Uint8Array(2 * 1024 * 1024 + 1).fill(0x41))).toThrow(/limit is 2 MB/);
+    expect(() => checkCsvBytes(new Uint8Array(2 * 1024 * 1024 + 1).fill(0x41))).toThrow(
+      /limit is 2 MB/,
+    );
   });
 
   it('an empty file, and a file of blank lines', () => {

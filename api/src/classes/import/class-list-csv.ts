@@ -1,5 +1,10 @@
 import { CsvError, parse } from 'csv-parse/sync';
-import { CLASS_IMPORT_MAX_BYTES, CLASS_IMPORT_MAX_ROWS, CLASS_LIST_COLUMNS, type ClassListColumnKey } from '@stavemark/shared';
+import {
+  CLASS_IMPORT_MAX_BYTES,
+  CLASS_IMPORT_MAX_ROWS,
+  CLASS_LIST_COLUMNS,
+  type ClassListColumnKey,
+} from '@stavemark/shared';
 
 /** A problem with the file as a whole: nothing in it is imported. */
 export class CsvFileError extends Error {
@@ -23,7 +28,8 @@ export interface ParsedClassList {
   records: CsvRecord[];
 }
 
-const SAVE_AS_HINT = 'In your spreadsheet choose Save As and the format “CSV UTF-8 (comma delimited)”, then upload that file. Nothing was imported.';
+const SAVE_AS_HINT =
+  'In your spreadsheet choose Save As and the format “CSV UTF-8 (comma delimited)”, then upload that file. Nothing was imported.';
 const BYTE = (b: number) => `0x${b.toString(16).toUpperCase().padStart(2, '0')}`;
 const mb = (n: number) => `${(n / 1024 / 1024).toFixed(n % (1024 * 1024) === 0 ? 0 : 1)} MB`;
 
@@ -67,11 +73,15 @@ function lineAt(buf: Uint8Array, offset: number): number {
  * and other encodings are refused with a message that says what to do (never imported as mojibake).
  */
 export function checkCsvBytes(input: Uint8Array): Uint8Array {
-  if (input.length === 0) throw new CsvFileError('The file is empty. Choose the class list CSV file and try again.');
+  if (input.length === 0)
+    throw new CsvFileError('The file is empty. Choose the class list CSV file and try again.');
   if (input.length > CLASS_IMPORT_MAX_BYTES) {
-    throw new CsvFileError(`The file is ${mb(input.length)}; the limit is ${mb(CLASS_IMPORT_MAX_BYTES)} per import. Split the class list into smaller files.`);
+    throw new CsvFileError(
+      `The file is ${mb(input.length)}; the limit is ${mb(CLASS_IMPORT_MAX_BYTES)} per import. Split the class list into smaller files.`,
+    );
   }
-  const buf = input[0] === 0xef && input[1] === 0xbb && input[2] === 0xbf ? input.subarray(3) : input;
+  const buf =
+    input[0] === 0xef && input[1] === 0xbb && input[2] === 0xbf ? input.subarray(3) : input;
   for (let i = 0; i < buf.length; i++) {
     const b = buf[i]!;
     // Text has no NUL and no C0 control characters other than tab, line feed and carriage return.
@@ -133,7 +143,10 @@ function describeCsvError(err: CsvError): string {
  * The records of checked bytes with the line each starts on, leaving out blank lines and lines of
  * only delimiters (spreadsheets write ",,,,"). Quoting follows RFC 4180 §2 through csv-parse.
  */
-export function readRecords(buf: Uint8Array, delimiter: ',' | ';'): { line: number; cells: string[] }[] {
+export function readRecords(
+  buf: Uint8Array,
+  delimiter: ',' | ';',
+): { line: number; cells: string[] }[] {
   let raw: { record: string[]; info: { bytes: number } }[];
   try {
     raw = parse(Buffer.from(buf.buffer, buf.byteOffset, buf.byteLength), {
@@ -169,7 +182,10 @@ export function parseClassList(input: Uint8Array): ParsedClassList {
   const buf = checkCsvBytes(input);
   const delimiter = detectDelimiter(buf);
   const rows = readRecords(buf, delimiter);
-  if (rows.length === 0) throw new CsvFileError(`The file has no header line. The first line names the columns: ${columnList}.`);
+  if (rows.length === 0)
+    throw new CsvFileError(
+      `The file has no header line. The first line names the columns: ${columnList}.`,
+    );
 
   const header = rows[0]!;
   const columns: ClassListColumnKey[] = [];
@@ -181,21 +197,30 @@ export function parseClassList(input: Uint8Array): ParsedClassList {
       unknown.push(h.trim() === '' ? '(a column with no name)' : `“${h.trim()}”`);
       continue;
     }
-    if (seen.has(key)) throw new CsvFileError(`The columns “${seen.get(key)}” and “${h.trim()}” are the same column. Keep one of them.`);
+    if (seen.has(key))
+      throw new CsvFileError(
+        `The columns “${seen.get(key)}” and “${h.trim()}” are the same column. Keep one of them.`,
+      );
     seen.set(key, h.trim());
     columns.push(key);
   }
   if (seen.size === 0) {
-    throw new CsvFileError(`Line 1 should name the columns (${columnList}), but none of its cells is a column name. Download the template to see the layout.`);
+    throw new CsvFileError(
+      `Line 1 should name the columns (${columnList}), but none of its cells is a column name. Download the template to see the layout.`,
+    );
   }
   if (unknown.length > 0) {
     throw new CsvFileError(
       `Unknown column${unknown.length > 1 ? 's' : ''} ${unknown.join(', ')}. The class list has these columns: ${columnList}. Remove the others (nothing in them would be imported), then upload again.`,
     );
   }
-  const missing = CLASS_LIST_COLUMNS.filter((c) => c.required && !seen.has(c.key)).map((c) => `“${c.header}”`);
+  const missing = CLASS_LIST_COLUMNS.filter((c) => c.required && !seen.has(c.key)).map(
+    (c) => `“${c.header}”`,
+  );
   if (missing.length > 0) {
-    throw new CsvFileError(`The file has no ${missing.join(', ')} column${missing.length > 1 ? 's' : ''}, which ${missing.length > 1 ? 'are' : 'is'} required. Download the template to see the layout.`);
+    throw new CsvFileError(
+      `The file has no ${missing.join(', ')} column${missing.length > 1 ? 's' : ''}, which ${missing.length > 1 ? 'are' : 'is'} required. Download the template to see the layout.`,
+    );
   }
 
   const dataRows = rows.slice(1);

@@ -1,4 +1,10 @@
-import { Injectable, PayloadTooLargeException, type CallHandler, type ExecutionContext, type NestInterceptor } from '@nestjs/common';
+import {
+  Injectable,
+  PayloadTooLargeException,
+  type CallHandler,
+  type ExecutionContext,
+  type NestInterceptor,
+} from '@nestjs/common';
 import type { Request, Response } from 'express';
 import multer from 'multer';
 import type { Observable } from 'rxjs';
@@ -23,17 +29,32 @@ export class CsvUploadInterceptor implements NestInterceptor {
         if (!err) return resolve();
         if (err instanceof multer.MulterError) {
           if (err.code === 'LIMIT_FILE_SIZE') {
-            return reject(new PayloadTooLargeException(`The file is larger than ${CLASS_IMPORT_MAX_BYTES / 1024 / 1024} MB, the limit per import. Split the class list into smaller files.`));
+            return reject(
+              new PayloadTooLargeException(
+                `The file is larger than ${CLASS_IMPORT_MAX_BYTES / 1024 / 1024} MB, the limit per import. Split the class list into smaller files.`,
+              ),
+            );
           }
           if (err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT') {
-            return reject(invalid('Send one file, in the form field named “file”.', [{ path: 'file', message: 'one file expected' }]));
+            return reject(
+              invalid('Send one file, in the form field named “file”.', [
+                { path: 'file', message: 'one file expected' },
+              ]),
+            );
           }
           return reject(invalid(`The upload could not be read: ${err.message}.`));
         }
-        reject(invalid('The upload could not be read. Send the CSV as multipart/form-data in the field “file”.'));
+        reject(
+          invalid(
+            'The upload could not be read. Send the CSV as multipart/form-data in the field “file”.',
+          ),
+        );
       });
     });
-    if (!req.file) throw invalid('Choose a CSV file to upload (form field “file”).', [{ path: 'file', message: 'missing' }]);
+    if (!req.file)
+      throw invalid('Choose a CSV file to upload (form field “file”).', [
+        { path: 'file', message: 'missing' },
+      ]);
     return next.handle();
   }
 }

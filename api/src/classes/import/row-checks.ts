@@ -1,4 +1,10 @@
-import { ADULT_AGE, CLASS_LIST_COLUMNS, classCodeSchema, emailSchema, type ClassListColumnKey } from '@stavemark/shared';
+import {
+  ADULT_AGE,
+  CLASS_LIST_COLUMNS,
+  classCodeSchema,
+  emailSchema,
+  type ClassListColumnKey,
+} from '@stavemark/shared';
 import type { CsvRecord } from './class-list-csv.js';
 
 /** One record's values after checking, ready to match against the database. */
@@ -23,10 +29,9 @@ export interface RowCheck {
   display: { pupilNumber: string; name: string; classCode: string };
 }
 
-const HEADER: Record<ClassListColumnKey, string> = Object.fromEntries(CLASS_LIST_COLUMNS.map((c) => [c.key, c.header])) as Record<
-  ClassListColumnKey,
-  string
->;
+const HEADER: Record<ClassListColumnKey, string> = Object.fromEntries(
+  CLASS_LIST_COLUMNS.map((c) => [c.key, c.header]),
+) as Record<ClassListColumnKey, string>;
 /** What makes a spreadsheet treat a cell as a formula (OWASP CSV injection); never valid in these columns. */
 const FORMULA_START = /^[=+\-@\t\r]/;
 
@@ -55,7 +60,9 @@ export function checkRecord(rec: CsvRecord, importDate: string): RowCheck {
     if (FORMULA_START.test(v) || FORMULA_START.test(v.trim())) {
       const first = v.trimStart()[0] ?? v[0];
       const shown = first === '\t' ? 'a tab' : first === '\r' ? 'a carriage return' : `“${first}”`;
-      errors.push(`${c.header} starts with ${shown}, which spreadsheets run as a formula. Remove it.`);
+      errors.push(
+        `${c.header} starts with ${shown}, which spreadsheets run as a formula. Remove it.`,
+      );
     }
   }
   const text = (k: ClassListColumnKey): string => raw(k).trim();
@@ -83,17 +90,25 @@ export function checkRecord(rec: CsvRecord, importDate: string): RowCheck {
   };
 
   const pupilNumber = text('pupilNumber') || null;
-  if (pupilNumber && (pupilNumber.length > 40 || !/^[\p{L}\p{N}][\p{L}\p{N}/._-]*$/u.test(pupilNumber))) {
-    errors.push(`Pupil number “${pupilNumber}” should be letters and digits (up to 40; . / _ - allowed inside).`);
+  if (
+    pupilNumber &&
+    (pupilNumber.length > 40 || !/^[\p{L}\p{N}][\p{L}\p{N}/._-]*$/u.test(pupilNumber))
+  ) {
+    errors.push(
+      `Pupil number “${pupilNumber}” should be letters and digits (up to 40; . / _ - allowed inside).`,
+    );
   }
   const givenName = required('givenName', 100);
   const familyName = required('familyName', 100);
   const studentEmail = optionalEmail('studentEmail');
   const guardianEmail = optionalEmail('guardianEmail');
   const guardianName = text('guardianName') || null;
-  if (guardianName && guardianName.length > 120) errors.push('Guardian name is longer than 120 characters.');
-  if (text('guardianEmail') && !guardianName) errors.push('Guardian name is empty, but a guardian e-mail is given: add the name.');
-  if (guardianName && !text('guardianEmail')) errors.push('Guardian e-mail is empty, but a guardian name is given: add the e-mail.');
+  if (guardianName && guardianName.length > 120)
+    errors.push('Guardian name is longer than 120 characters.');
+  if (text('guardianEmail') && !guardianName)
+    errors.push('Guardian name is empty, but a guardian e-mail is given: add the name.');
+  if (guardianName && !text('guardianEmail'))
+    errors.push('Guardian e-mail is empty, but a guardian name is given: add the e-mail.');
 
   const dobText = text('dateOfBirth');
   let dateOfBirth = '';
@@ -112,14 +127,17 @@ export function checkRecord(rec: CsvRecord, importDate: string): RowCheck {
     const age = ageOn(dobText, importDate);
     minor = age < ADULT_AGE;
     if (minor && !text('guardianEmail')) {
-      errors.push(`${display.name || 'This student'} is ${age} on ${importDate}: a student under ${ADULT_AGE} needs a guardian e-mail.`);
+      errors.push(
+        `${display.name || 'This student'} is ${age} on ${importDate}: a student under ${ADULT_AGE} needs a guardian e-mail.`,
+      );
     }
   }
 
   const gradeText = text('grade');
   let grade: number | null = null;
   if (gradeText) {
-    if (!/^\d{1,2}$/.test(gradeText) || Number(gradeText) > 12) errors.push(`Grade “${gradeText}” should be a whole number from 0 to 12.`);
+    if (!/^\d{1,2}$/.test(gradeText) || Number(gradeText) > 12)
+      errors.push(`Grade “${gradeText}” should be a whole number from 0 to 12.`);
     else grade = Number(gradeText);
   }
 
@@ -128,16 +146,31 @@ export function checkRecord(rec: CsvRecord, importDate: string): RowCheck {
   if (!codeText) errors.push('Class code is empty.');
   else {
     const r = classCodeSchema.safeParse(codeText);
-    if (!r.success) errors.push(`Class code “${codeText}”: ${r.error.issues[0]?.message ?? 'not valid'}`);
+    if (!r.success)
+      errors.push(`Class code “${codeText}”: ${r.error.issues[0]?.message ?? 'not valid'}`);
     else classCode = r.data;
   }
   if (!pupilNumber && !studentEmail && !text('studentEmail')) {
-    errors.push('Pupil number is empty: give it, or (for a student already here) their e-mail, so the row can be matched.');
+    errors.push(
+      'Pupil number is empty: give it, or (for a student already here) their e-mail, so the row can be matched.',
+    );
   }
 
   if (errors.length > 0) return { row: null, errors: [...new Set(errors)], display };
   return {
-    row: { line: rec.line, pupilNumber, givenName, familyName, studentEmail, dateOfBirth, guardianName, guardianEmail, grade, classCode, minor },
+    row: {
+      line: rec.line,
+      pupilNumber,
+      givenName,
+      familyName,
+      studentEmail,
+      dateOfBirth,
+      guardianName,
+      guardianEmail,
+      grade,
+      classCode,
+      minor,
+    },
     errors: [],
     display,
   };

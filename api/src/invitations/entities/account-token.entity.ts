@@ -1,4 +1,14 @@
-import { Check, Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import {
+  Check,
+  Column,
+  CreateDateColumn,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  PrimaryGeneratedColumn,
+  type Relation,
+} from 'typeorm';
 import { Organisation } from '../../organisations/entities/organisation.entity.js';
 import { Person } from '../../users/entities/person.entity.js';
 
@@ -12,7 +22,10 @@ export type TokenPurpose = (typeof TOKEN_PURPOSES)[number];
  */
 @Entity('account_tokens')
 @Check('account_tokens_purpose', `purpose IN ('invitation', 'password_reset', 'guardian_consent')`)
-@Check('account_tokens_target', `(purpose = 'guardian_consent') = (guardian_email IS NOT NULL AND person_id IS NULL)`)
+@Check(
+  'account_tokens_target',
+  `(purpose = 'guardian_consent') = (guardian_email IS NOT NULL AND person_id IS NULL)`,
+)
 @Index(['tokenHash'], { unique: true, where: 'token_hash IS NOT NULL' })
 export class AccountToken {
   @PrimaryGeneratedColumn('uuid')

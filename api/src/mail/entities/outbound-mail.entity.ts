@@ -1,10 +1,27 @@
-import { Check, Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import {
+  Check,
+  Column,
+  CreateDateColumn,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  PrimaryGeneratedColumn,
+  type Relation,
+} from 'typeorm';
 import { Organisation } from '../../organisations/entities/organisation.entity.js';
 import { AccountToken } from '../../invitations/entities/account-token.entity.js';
 
 export const MAIL_KINDS = ['invitation', 'guardian_notice', 'password_reset'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
-export const MAIL_STATUSES = ['queued', 'sending', 'sent', 'retrying', 'failed', 'cancelled'] as const;
+export const MAIL_STATUSES = [
+  'queued',
+  'sending',
+  'sent',
+  'retrying',
+  'failed',
+  'cancelled',
+] as const;
 export type MailStatus = (typeof MAIL_STATUSES)[number];
 
 /**
@@ -15,7 +32,10 @@ export type MailStatus = (typeof MAIL_STATUSES)[number];
  */
 @Entity('outbound_mail')
 @Check('outbound_mail_kind', `kind IN ('invitation', 'guardian_notice', 'password_reset')`)
-@Check('outbound_mail_status', `status IN ('queued', 'sending', 'sent', 'retrying', 'failed', 'cancelled')`)
+@Check(
+  'outbound_mail_status',
+  `status IN ('queued', 'sending', 'sent', 'retrying', 'failed', 'cancelled')`,
+)
 @Index(['status', 'createdAt'])
 export class OutboundMail {
   @PrimaryGeneratedColumn('uuid')

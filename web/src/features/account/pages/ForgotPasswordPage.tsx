@@ -19,9 +19,17 @@ export function ForgotPasswordPage() {
     register,
     handleSubmit,
     formState: { errors },
-  } = useForm<ForgotPasswordInput>({ resolver: zodResolver(forgotPasswordSchema), defaultValues: { email: '' } });
+  } = useForm<ForgotPasswordInput>({
+    resolver: zodResolver(forgotPasswordSchema),
+    defaultValues: { email: '' },
+  });
   const onSubmit = handleSubmit((v) => forgot.mutate(v));
-  const error = forgot.error instanceof ApiError ? forgot.error.message : forgot.error ? 'The server could not be reached. Try again.' : null;
+  const error =
+    forgot.error instanceof ApiError
+      ? forgot.error.message
+      : forgot.error
+        ? 'The server could not be reached. Try again.'
+        : null;
   return (
     <AccountCard>
       <h1>Forgot your password?</h1>
@@ -29,14 +37,29 @@ export function ForgotPasswordPage() {
         <Alert severity="success">{forgot.data.message}</Alert>
       ) : (
         <form onSubmit={onSubmit} noValidate className="sm-form">
-          <p>Give the e-mail address you sign in with, and we will send it a link to choose a new password.</p>
+          <p>
+            Give the e-mail address you sign in with, and we will send it a link to choose a new
+            password.
+          </p>
           {error && <Alert severity="error">{error}</Alert>}
           <div className="sm-field">
             <label htmlFor={`${id}-email`}>E-mail</label>
-            <InputText id={`${id}-email`} type="email" autoComplete="username" invalid={!!errors.email} aria-describedby={`${id}-email-error`} {...register('email')} />
+            <InputText
+              id={`${id}-email`}
+              type="email"
+              autoComplete="username"
+              invalid={!!errors.email}
+              aria-describedby={`${id}-email-error`}
+              {...register('email')}
+            />
             <FieldError id={`${id}-email-error`} message={errors.email?.message} />
           </div>
-          <Button type="submit" label="Send me a link" className="sm-form-submit" loading={forgot.isPending} />
+          <Button
+            type="submit"
+            label="Send me a link"
+            className="sm-form-submit"
+            loading={forgot.isPending}
+          />
         </form>
       )}
       <p>

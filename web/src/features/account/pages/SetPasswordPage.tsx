@@ -19,7 +19,10 @@ import { useLinkToken } from './use-link-token';
 
 const schema = z
   .object({ password: passwordSchema, confirm: z.string() })
-  .refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'The two passwords are not the same.' });
+  .refine((v) => v.password === v.confirm, {
+    path: ['confirm'],
+    message: 'The two passwords are not the same.',
+  });
 type Fields = z.infer<typeof schema>;
 
 const GONE = 'This link cannot be used: it is incomplete, has expired, or was used already.';
@@ -28,22 +31,44 @@ const GONE = 'This link cannot be used: it is incomplete, has expired, or was us
 export function SetPasswordPage({ purpose }: { purpose: 'invitation' | 'password_reset' }) {
   const id = useId();
   const token = useLinkToken();
-  const info = useQuery({ queryKey: ['account-link', token], queryFn: () => getLinkInfo(token), enabled: token.length > 0, retry: false, staleTime: Infinity });
+  const info = useQuery({
+    queryKey: ['account-link', token],
+    queryFn: () => getLinkInfo(token),
+    enabled: token.length > 0,
+    retry: false,
+    staleTime: Infinity,
+  });
   const setPassword = useSetPassword(purpose);
   const [done, setDone] = useState<string | null>(null);
   const {
     control,
     handleSubmit,
     formState: { errors },
-  } = useForm<Fields>({ resolver: zodResolver(schema), defaultValues: { password: '', confirm: '' } });
+  } = useForm<Fields>({
+    resolver: zodResolver(schema),
+    defaultValues: { password: '', confirm: '' },
+  });
 
   const title = purpose === 'invitation' ? 'Welcome to Stavemark' : 'Choose a new password';
   if (token && info.isPending) return <PageLoading />;
-  const linkProblem = !token ? GONE : info.isError ? (info.error instanceof ApiError ? info.error.message : GONE) : null;
+  const linkProblem = !token
+    ? GONE
+    : info.isError
+      ? info.error instanceof ApiError
+        ? info.error.message
+        : GONE
+      : null;
   const wrongKind = info.data && info.data.purpose !== purpose;
 
-  const onSubmit = handleSubmit((v) => setPassword.mutate({ token, password: v.password }, { onSuccess: (r) => setDone(r.message) }));
-  const submitError = setPassword.error instanceof ApiError ? setPassword.error.message : setPassword.error ? 'The server could not be reached. Try again.' : null;
+  const onSubmit = handleSubmit((v) =>
+    setPassword.mutate({ token, password: v.password }, { onSuccess: (r) => setDone(r.message) }),
+  );
+  const submitError =
+    setPassword.error instanceof ApiError
+      ? setPassword.error.message
+      : setPassword.error
+        ? 'The server could not be reached. Try again.'
+        : null;
 
   return (
     <AccountCard>
@@ -59,7 +84,8 @@ export function SetPasswordPage({ purpose }: { purpose: 'invitation' | 'password
         <>
           <Alert severity="error">{wrongKind ? GONE : linkProblem}</Alert>
           <p>
-            You can <Link to={paths.forgotPassword.href()}>ask for a fresh link</Link>; it comes by e-mail within a minute.
+            You can <Link to={paths.forgotPassword.href()}>ask for a fresh link</Link>; it comes by
+            e-mail within a minute.
           </p>
         </>
       ) : (
@@ -118,7 +144,12 @@ export function SetPasswordPage({ purpose }: { purpose: 'invitation' | 'password
             />
             <FieldError id={`${id}-confirm-error`} message={errors.confirm?.message} />
           </div>
-          <Button type="submit" label="Save my password" className="sm-form-submit" loading={setPassword.isPending} />
+          <Button
+            type="submit"
+            label="Save my password"
+            className="sm-form-submit"
+            loading={setPassword.isPending}
+          />
         </form>
       )}
     </AccountCard>

@@ -7,7 +7,8 @@ export function useLinkToken(): string {
   const location = useLocation();
   const [token] = useState(() => tokenFromHash(location.hash));
   useEffect(() => {
-    if (window.location.hash) window.history.replaceState(window.history.state, '', window.location.pathname);
+    if (window.location.hash)
+      window.history.replaceState(window.history.state, '', window.location.pathname);
   }, []);
   return token;
 }

@@ -8,7 +8,10 @@ export function getClass(id: string, signal?: AbortSignal): Promise<ClassDetail>
 }
 
 export const classQueryOptions = (id: string) =>
-  queryOptions({ queryKey: [...classesKey, 'detail', id], queryFn: ({ signal }) => getClass(id, signal) });
+  queryOptions({
+    queryKey: [...classesKey, 'detail', id],
+    queryFn: ({ signal }) => getClass(id, signal),
+  });
 
 export function useClass(id: string) {
   return useQuery(classQueryOptions(id));

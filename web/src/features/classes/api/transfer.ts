@@ -1,5 +1,11 @@
 import type { ApiErrorBody, ImportReport } from '@stavemark/shared';
-import { API_BASE, ApiError, refreshSession, SESSION_ENDED_NOTICE, SessionEndedError } from '@/lib/api-client';
+import {
+  API_BASE,
+  ApiError,
+  refreshSession,
+  SESSION_ENDED_NOTICE,
+  SessionEndedError,
+} from '@/lib/api-client';
 import { sessionStore } from '@/lib/session-store';
 
 // Uploads and downloads of files. The shared API client speaks JSON through fetch; a file upload
@@ -23,13 +29,19 @@ function toApiError(status: number, text: string): ApiError {
   return new ApiError({
     statusCode: body?.statusCode ?? status,
     error: body?.error ?? 'Error',
-    message: body?.message ?? (status >= 500 ? 'The server could not answer. Please try again in a moment.' : `The request failed (${status}).`),
+    message:
+      body?.message ??
+      (status >= 500
+        ? 'The server could not answer. Please try again in a moment.'
+        : `The request failed (${status}).`),
     ...(body?.details !== undefined ? { details: body.details } : {}),
   });
 }
 
 /** Runs `attempt` with the current token, once more after a silent refresh if it answers 401. */
-async function withRenewal<T>(attempt: (token: string | null) => Promise<{ status: number; value: T }>): Promise<T> {
+async function withRenewal<T>(
+  attempt: (token: string | null) => Promise<{ status: number; value: T }>,
+): Promise<T> {
   const used = sessionStore.getAccessToken();
   let result = await attempt(used);
   if (result.status === 401 && used) {
@@ -43,13 +55,19 @@ async function withRenewal<T>(attempt: (token: string | null) => Promise<{ statu
   return result.value;
 }
 
-function xhrUpload(path: string, form: FormData, token: string | null, onProgress: (p: TransferProgress) => void) {
+function xhrUpload(
+  path: string,
+  form: FormData,
+  token: string | null,
+  onProgress: (p: TransferProgress) => void,
+) {
   return new Promise<{ status: number; text: string }>((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open('POST', `${API_BASE}${path}`);
     xhr.setRequestHeader('Accept', 'application/json');
     if (token) xhr.setRequestHeader('Authorization', `Bearer ${token}`);
-    xhr.upload.onprogress = (e) => onProgress({ phase: 'uploading', fraction: e.lengthComputable ? e.loaded / e.total : null });
+    xhr.upload.onprogress = (e) =>
+      onProgress({ phase: 'uploading', fraction: e.lengthComputable ? e.loaded / e.total : null });
     xhr.upload.onload = () => onProgress({ phase: 'processing', fraction: null });
     xhr.onload = () => resolve({ status: xhr.status, text: xhr.responseText });
     xhr.onerror = () => reject(new Error('network'));
@@ -58,12 +76,21 @@ function xhrUpload(path: string, form: FormData, token: string | null, onProgres
 }
 
 /** POST /api/classes/import with the file; resolves with the report or rejects with the API's error. */
-export function importClassList(file: File, dryRun: boolean, onProgress: (p: TransferProgress) => void = () => {}): Promise<ImportReport> {
+export function importClassList(
+  file: File,
+  dryRun: boolean,
+  onProgress: (p: TransferProgress) => void = () => {},
+): Promise<ImportReport> {
   const form = new FormData();
   form.append('file', file, file.name);
   return withRenewal(async (token) => {
     onProgress({ phase: 'uploading', fraction: 0 });
-    const res = await xhrUpload(`/classes/import${dryRun ? '?dryRun=true' : ''}`, form, token, onProgress);
+    const res = await xhrUpload(
+      `/classes/import${dryRun ? '?dryRun=true' : ''}`,
+      form,
+      token,
+      onProgress,
+    );
     if (res.status === 401) return { status: 401, value: undefined as unknown as ImportReport };
     if (res.status < 200 || res.status >= 300) throw toApiError(res.status, res.text);
     return { status: res.status, value: JSON.parse(res.text) as ImportReport };
@@ -73,10 +100,14 @@ export function importClassList(file: File, dryRun: boolean, onProgress: (p: Tra
 /** Fetches a file the API serves behind the bearer token and hands it to the browser as a download. */
 export async function downloadFile(path: string, fallbackName: string): Promise<void> {
   const blob = await withRenewal(async (token) => {
-    const res = await fetch(`${API_BASE}${path}`, { headers: token ? { Authorization: `Bearer ${token}` } : {}, credentials: 'include' });
+    const res = await fetch(`${API_BASE}${path}`, {
+      headers: token ? { Authorization: `Bearer ${token}` } : {},
+      credentials: 'include',
+    });
     if (res.status === 401) return { status: 401, value: null };
     if (!res.ok) throw toApiError(res.status, await res.text());
-    const name = /filename="([^"]+)"/.exec(res.headers.get('Content-Disposition') ?? '')?.[1] ?? fallbackName;
+    const name =
+      /filename="([^"]+)"/.exec(res.headers.get('Content-Disposition') ?? '')?.[1] ?? fallbackName;
     return { status: res.status, value: { blob: await res.blob(), name } };
   });
   if (!blob) return;

@@ -3,8 +3,17 @@ import type { ClassRow, UpdateClassInput } from '@stavemark/shared';
 import { apiRequest } from '@/lib/api-client';
 import { classesKey } from './keys';
 
-export function updateClass({ id, changes }: { id: string; changes: UpdateClassInput }): Promise<ClassRow> {
-  return apiRequest<ClassRow>(`/classes/${encodeURIComponent(id)}`, { method: 'PATCH', body: changes });
+export function updateClass({
+  id,
+  changes,
+}: {
+  id: string;
+  changes: UpdateClassInput;
+}): Promise<ClassRow> {
+  return apiRequest<ClassRow>(`/classes/${encodeURIComponent(id)}`, {
+    method: 'PATCH',
+    body: changes,
+  });
 }
 
 export function useUpdateClass() {

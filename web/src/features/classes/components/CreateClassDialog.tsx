@@ -13,7 +13,15 @@ import { useCreateClass } from '../api/create-class';
 
 type Fields = z.input<typeof createClassSchema>;
 
-export function CreateClassDialog({ visible, onHide, onCreated }: { visible: boolean; onHide: () => void; onCreated: (c: ClassRow) => void }) {
+export function CreateClassDialog({
+  visible,
+  onHide,
+  onCreated,
+}: {
+  visible: boolean;
+  onHide: () => void;
+  onCreated: (c: ClassRow) => void;
+}) {
   const id = useId();
   const create = useCreateClass();
   const {
@@ -22,7 +30,10 @@ export function CreateClassDialog({ visible, onHide, onCreated }: { visible: boo
     setError,
     reset,
     formState: { errors },
-  } = useForm<Fields, unknown, z.output<typeof createClassSchema>>({ resolver: zodResolver(createClassSchema), defaultValues: { name: '', code: '' } });
+  } = useForm<Fields, unknown, z.output<typeof createClassSchema>>({
+    resolver: zodResolver(createClassSchema),
+    defaultValues: { name: '', code: '' },
+  });
   const close = () => {
     reset();
     create.reset();
@@ -40,17 +51,33 @@ export function CreateClassDialog({ visible, onHide, onCreated }: { visible: boo
     });
   });
   return (
-    <Dialog header="New class" visible={visible} onHide={close} style={{ width: 'min(28rem, 96vw)' }} modal>
+    <Dialog
+      header="New class"
+      visible={visible}
+      onHide={close}
+      style={{ width: 'min(28rem, 96vw)' }}
+      modal
+    >
       <form onSubmit={onSubmit} noValidate className="sm-form">
         {formError && <Alert severity="error">{formError}</Alert>}
         <div className="sm-field">
           <label htmlFor={`${id}-name`}>Name</label>
-          <InputText id={`${id}-name`} invalid={!!errors.name} aria-describedby={`${id}-name-error`} {...register('name')} />
+          <InputText
+            id={`${id}-name`}
+            invalid={!!errors.name}
+            aria-describedby={`${id}-name-error`}
+            {...register('name')}
+          />
           <FieldError id={`${id}-name-error`} message={errors.name?.message} />
         </div>
         <div className="sm-field">
           <label htmlFor={`${id}-code`}>Class code</label>
-          <InputText id={`${id}-code`} invalid={!!errors.code} aria-describedby={`${id}-code-hint ${id}-code-error`} {...register('code')} />
+          <InputText
+            id={`${id}-code`}
+            invalid={!!errors.code}
+            aria-describedby={`${id}-code-hint ${id}-code-error`}
+            {...register('code')}
+          />
           <small id={`${id}-code-hint`} className="sm-field-hint">
             The code class lists use, e.g. TUE-BEG.
           </small>

@@ -20,7 +20,15 @@ function report(overrides: Partial<ImportReport> = {}): ImportReport {
     rowCount: 2,
     counts: { new: 1, updated: 0, unchanged: 0, error: 1 },
     rows: [
-      { line: 2, status: 'new', pupilNumber: 'KL2101', name: 'Maren Ashcombe', classCode: 'TUE-BEG', changes: [], errors: [] },
+      {
+        line: 2,
+        status: 'new',
+        pupilNumber: 'KL2101',
+        name: 'Maren Ashcombe',
+        classCode: 'TUE-BEG',
+        changes: [],
+        errors: [],
+      },
       {
         line: 3,
         status: 'error',
@@ -60,7 +68,9 @@ describe('the import dialog', () => {
     const user = setup();
     await user.upload(screen.getByLabelText('Class list file (CSV)'), file());
     await user.click(screen.getByRole('button', { name: 'Check the file' }));
-    expect(await screen.findByText(/1 row has an error, so this file cannot be imported yet/)).toBeInTheDocument();
+    expect(
+      await screen.findByText(/1 row has an error, so this file cannot be imported yet/),
+    ).toBeInTheDocument();
     expect(screen.getByText(/2017-02-30/)).toBeInTheDocument();
     expect(screen.getByText('1 with an error')).toBeInTheDocument();
     expect(screen.queryByRole('button', { name: /^Import \d/ })).not.toBeInTheDocument();
@@ -68,17 +78,32 @@ describe('the import dialog', () => {
   });
 
   it('a clean check offers the import; a refused import shows the server’s report', async () => {
-    const clean = report({ counts: { new: 2, updated: 0, unchanged: 0, error: 0 }, rows: report().rows.map((r) => ({ ...r, status: 'new' as const, errors: [] })) });
+    const clean = report({
+      counts: { new: 2, updated: 0, unchanged: 0, error: 0 },
+      rows: report().rows.map((r) => ({ ...r, status: 'new' as const, errors: [] })),
+    });
     importMock.mockResolvedValueOnce(clean);
     importMock.mockRejectedValueOnce(
-      new ApiError({ statusCode: 400, error: 'Bad Request', message: '1 row has an error, so nothing was imported. Correct the file and upload it again.', details: { report: report({ dryRun: false }) } }),
+      new ApiError({
+        statusCode: 400,
+        error: 'Bad Request',
+        message:
+          '1 row has an error, so nothing was imported. Correct the file and upload it again.',
+        details: { report: report({ dryRun: false }) },
+      }),
     );
     const user = setup();
     await user.upload(screen.getByLabelText('Class list file (CSV)'), file());
     await user.click(screen.getByRole('button', { name: 'Check the file' }));
     await user.click(await screen.findByRole('button', { name: 'Import 2 rows' }));
-    await waitFor(() => expect(importMock).toHaveBeenLastCalledWith(expect.any(File), false, expect.any(Function)));
-    expect(await screen.findByText('1 row has an error, so nothing was imported. Correct the file and upload it again.')).toBeInTheDocument();
+    await waitFor(() =>
+      expect(importMock).toHaveBeenLastCalledWith(expect.any(File), false, expect.any(Function)),
+    );
+    expect(
+      await screen.findByText(
+        '1 row has an error, so nothing was imported. Correct the file and upload it again.',
+      ),
+    ).toBeInTheDocument();
     expect(screen.getByText(/2017-02-30/)).toBeInTheDocument();
   });
 });

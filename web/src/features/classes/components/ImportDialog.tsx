@@ -4,7 +4,12 @@ import { Dialog } from 'primereact/dialog';
 import { Button } from 'primereact/button';
 import { ProgressBar } from 'primereact/progressbar';
 import { Tag } from 'primereact/tag';
-import { CLASS_IMPORT_MAX_BYTES, CLASS_IMPORT_MAX_ROWS, CLASS_LIST_COLUMNS, type ImportReport } from '@stavemark/shared';
+import {
+  CLASS_IMPORT_MAX_BYTES,
+  CLASS_IMPORT_MAX_ROWS,
+  CLASS_LIST_COLUMNS,
+  type ImportReport,
+} from '@stavemark/shared';
 import { Alert } from '@/components/Alert';
 import { ApiError } from '@/lib/api-client';
 import { notify } from '@/lib/notify';
@@ -24,7 +29,8 @@ type Step =
   | { kind: 'failed'; message: string; report?: ImportReport };
 
 function progressText(what: 'check' | 'apply', p: TransferProgress): string {
-  if (p.phase === 'uploading') return `Uploading the file… ${p.fraction === null ? '' : `${Math.round(p.fraction * 100)}%`}`;
+  if (p.phase === 'uploading')
+    return `Uploading the file… ${p.fraction === null ? '' : `${Math.round(p.fraction * 100)}%`}`;
   return what === 'check' ? 'Checking every row…' : 'Importing: writing every row in one step…';
 }
 
@@ -50,27 +56,41 @@ export function ImportDialog({ visible, onHide }: Props) {
     if (!file) return;
     setStep({ kind: 'working', what, progress: { phase: 'uploading', fraction: 0 } });
     try {
-      const report = await importClassList(file, what === 'check', (progress) => setStep({ kind: 'working', what, progress }));
+      const report = await importClassList(file, what === 'check', (progress) =>
+        setStep({ kind: 'working', what, progress }),
+      );
       if (what === 'check') {
         setStep({ kind: 'checked', report });
         return;
       }
-      await Promise.all([queryClient.invalidateQueries({ queryKey: classesKey }), queryClient.invalidateQueries({ queryKey: studentsKey })]);
+      await Promise.all([
+        queryClient.invalidateQueries({ queryKey: classesKey }),
+        queryClient.invalidateQueries({ queryKey: studentsKey }),
+      ]);
       const mails = report.invitations + report.guardianNotices;
       notify({
         severity: 'success',
         summary: `Imported ${file.name}: ${countsText(report.counts).replace(/, 0 with errors$/, '')}.`,
-        detail: mails ? `${mails} e-mail${mails === 1 ? '' : 's'} on the way (invitations and notices to guardians).` : undefined,
+        detail: mails
+          ? `${mails} e-mail${mails === 1 ? '' : 's'} on the way (invitations and notices to guardians).`
+          : undefined,
       });
       close();
     } catch (error) {
-      const report = error instanceof ApiError ? ((error.body.details as { report?: ImportReport } | undefined)?.report ?? undefined) : undefined;
-      const message = error instanceof ApiError ? error.message : 'The server could not be reached. Nothing was imported; try again.';
+      const report =
+        error instanceof ApiError
+          ? ((error.body.details as { report?: ImportReport } | undefined)?.report ?? undefined)
+          : undefined;
+      const message =
+        error instanceof ApiError
+          ? error.message
+          : 'The server could not be reached. Nothing was imported; try again.';
       setStep({ kind: 'failed', message, report });
     }
   };
 
-  const report = step.kind === 'checked' ? step.report : step.kind === 'failed' ? step.report : undefined;
+  const report =
+    step.kind === 'checked' ? step.report : step.kind === 'failed' ? step.report : undefined;
   const canApply = step.kind === 'checked' && step.report.counts.error === 0;
   const toApply = report ? report.counts.new + report.counts.updated : 0;
 
@@ -80,7 +100,11 @@ export function ImportDialog({ visible, onHide }: Props) {
       {step.kind === 'checked' && canApply && (
         <Button
           type="button"
-          label={toApply === 0 ? 'Nothing to import' : `Import ${toApply} ${toApply === 1 ? 'row' : 'rows'}`}
+          label={
+            toApply === 0
+              ? 'Nothing to import'
+              : `Import ${toApply} ${toApply === 1 ? 'row' : 'rows'}`
+          }
           icon="pi pi-check"
           disabled={toApply === 0}
           onClick={() => void run('apply')}
@@ -90,9 +114,17 @@ export function ImportDialog({ visible, onHide }: Props) {
   );
 
   return (
-    <Dialog header="Import a class list" visible={visible} onHide={close} style={{ width: 'min(72rem, 96vw)' }} footer={footer} modal>
+    <Dialog
+      header="Import a class list"
+      visible={visible}
+      onHide={close}
+      style={{ width: 'min(72rem, 96vw)' }}
+      footer={footer}
+      modal
+    >
       <p>
-        A CSV file saved from a spreadsheet or the office system, one student per line, at most {CLASS_IMPORT_MAX_ROWS.toLocaleString('en-GB')} rows and{' '}
+        A CSV file saved from a spreadsheet or the office system, one student per line, at most{' '}
+        {CLASS_IMPORT_MAX_ROWS.toLocaleString('en-GB')} rows and{' '}
         {CLASS_IMPORT_MAX_BYTES / 1024 / 1024} MB. The first line names the columns, in any order:
       </p>
       <ul className="sm-import-columns">
@@ -106,12 +138,17 @@ export function ImportDialog({ visible, onHide }: Props) {
         ))}
       </ul>
       <p className="sm-muted">
-        Nothing is imported until you have seen the check and confirmed it; a file with any error imports nothing. New students with an e-mail get an
-        invitation, and guardians of children a notice.{' '}
+        Nothing is imported until you have seen the check and confirmed it; a file with any error
+        imports nothing. New students with an e-mail get an invitation, and guardians of children a
+        notice.{' '}
         <button
           type="button"
           className="sm-link-button"
-          onClick={() => void downloadFile('/classes/import/template', 'class-list-template.csv').catch(() => notify({ severity: 'error', summary: 'The template could not be downloaded.' }))}
+          onClick={() =>
+            void downloadFile('/classes/import/template', 'class-list-template.csv').catch(() =>
+              notify({ severity: 'error', summary: 'The template could not be downloaded.' }),
+            )
+          }
         >
           Download the template
         </button>
@@ -132,7 +169,13 @@ export function ImportDialog({ visible, onHide }: Props) {
             setStep({ kind: 'choose' });
           }}
         />
-        <Button type="button" label="Check the file" icon="pi pi-search" disabled={!file || step.kind === 'working'} onClick={() => void run('check')} />
+        <Button
+          type="button"
+          label="Check the file"
+          icon="pi pi-search"
+          disabled={!file || step.kind === 'working'}
+          onClick={() => void run('check')}
+        />
       </div>
 
       {step.kind === 'working' && (
@@ -141,7 +184,12 @@ export function ImportDialog({ visible, onHide }: Props) {
           {step.progress.fraction === null ? (
             <ProgressBar mode="indeterminate" style={{ height: '6px' }} aria-label="Working" />
           ) : (
-            <ProgressBar value={Math.round(step.progress.fraction * 100)} showValue={false} style={{ height: '6px' }} aria-label="Upload progress" />
+            <ProgressBar
+              value={Math.round(step.progress.fraction * 100)}
+              showValue={false}
+              style={{ height: '6px' }}
+              aria-label="Upload progress"
+            />
           )}
         </div>
       )}
@@ -154,13 +202,24 @@ export function ImportDialog({ visible, onHide }: Props) {
             <Tag severity="success" value={`${report.counts.new} new`} />
             <Tag severity="info" value={`${report.counts.updated} updated`} />
             <Tag severity="secondary" value={`${report.counts.unchanged} unchanged`} />
-            <Tag severity="danger" value={`${report.counts.error} with ${report.counts.error === 1 ? 'an error' : 'errors'}`} />
-            {report.newClassCodes.length > 0 && <Tag severity="warning" value={`New class${report.newClassCodes.length > 1 ? 'es' : ''}: ${report.newClassCodes.join(', ')}`} />}
+            <Tag
+              severity="danger"
+              value={`${report.counts.error} with ${report.counts.error === 1 ? 'an error' : 'errors'}`}
+            />
+            {report.newClassCodes.length > 0 && (
+              <Tag
+                severity="warning"
+                value={`New class${report.newClassCodes.length > 1 ? 'es' : ''}: ${report.newClassCodes.join(', ')}`}
+              />
+            )}
           </div>
           {step.kind === 'checked' && report.counts.error > 0 && (
             <Alert severity="error">
-              {report.counts.error === 1 ? '1 row has an error' : `${report.counts.error} rows have errors`}, so this file cannot be imported yet. Correct the
-              file, save it, and choose it again. Nothing has been imported.
+              {report.counts.error === 1
+                ? '1 row has an error'
+                : `${report.counts.error} rows have errors`}
+              , so this file cannot be imported yet. Correct the file, save it, and choose it again.
+              Nothing has been imported.
             </Alert>
           )}
           {step.kind === 'checked' && report.counts.error === 0 && (

@@ -3,7 +3,10 @@ import { Column } from 'primereact/column';
 import { Tag } from 'primereact/tag';
 import type { ImportReport, ImportRowReport, ImportRowStatus } from '@stavemark/shared';
 
-const STATUS: Record<ImportRowStatus, { label: string; severity: 'success' | 'info' | 'secondary' | 'danger' }> = {
+const STATUS: Record<
+  ImportRowStatus,
+  { label: string; severity: 'success' | 'info' | 'secondary' | 'danger' }
+> = {
   new: { label: 'New', severity: 'success' },
   updated: { label: 'Updated', severity: 'info' },
   unchanged: { label: 'Unchanged', severity: 'secondary' },
@@ -22,7 +25,9 @@ export function countsText(counts: ImportReport['counts']): string {
 /** Every row of a dry run or a refused import: line, outcome and what changes or what is wrong. */
 export function ImportReportTable({ report }: { report: ImportReport }) {
   // Rows with errors first, so a long file does not hide them.
-  const rows = [...report.rows].sort((a, b) => Number(b.status === 'error') - Number(a.status === 'error') || a.line - b.line);
+  const rows = [...report.rows].sort(
+    (a, b) => Number(b.status === 'error') - Number(a.status === 'error') || a.line - b.line,
+  );
   const details = (row: ImportRowReport) =>
     row.status === 'error' ? (
       <ul className="sm-row-problems">
@@ -53,7 +58,11 @@ export function ImportReportTable({ report }: { report: ImportReport }) {
         rowClassName={(r: ImportRowReport) => (r.status === 'error' ? 'sm-row-error' : '')}
       >
         <Column field="line" header="Line" style={{ width: '4.5rem' }} />
-        <Column header="Outcome" body={(r: ImportRowReport) => statusTag(r.status)} style={{ width: '7.5rem' }} />
+        <Column
+          header="Outcome"
+          body={(r: ImportRowReport) => statusTag(r.status)}
+          style={{ width: '7.5rem' }}
+        />
         <Column field="pupilNumber" header="Pupil number" />
         <Column field="name" header="Name" />
         <Column field="classCode" header="Class" />

@@ -19,7 +19,8 @@ import { useUpdateClass } from '../api/update-class';
 import { AddStudentDialog } from '../components/AddStudentDialog';
 import '../classes.css';
 
-const consentText = (v: boolean | null, what: string) => (v === null ? `${what}: not answered` : `${what}: ${v ? 'yes' : 'no'}`);
+const consentText = (v: boolean | null, what: string) =>
+  v === null ? `${what}: not answered` : `${what}: ${v ? 'yes' : 'no'}`;
 
 export function ClassDetailPage() {
   const { classId = '' } = useParams();
@@ -43,7 +44,8 @@ export function ClassDetailPage() {
           <small>{g.email}</small>
           <br />
           <small>
-            {consentText(g.consentResultsEmail, 'Results by e-mail')} · {consentText(g.consentRecordings, 'Recordings')}
+            {consentText(g.consentResultsEmail, 'Results by e-mail')} ·{' '}
+            {consentText(g.consentRecordings, 'Recordings')}
           </small>
         </span>
       ))
@@ -74,14 +76,18 @@ export function ClassDetailPage() {
           onClick={() =>
             confirmDialog({
               header: `Take ${name} out of ${c.name}?`,
-              message: 'They stay a student of the school, with all their records; only their place in this class ends.',
+              message:
+                'They stay a student of the school, with all their records; only their place in this class ends.',
               acceptLabel: 'Take out',
               rejectLabel: 'Keep',
               defaultFocus: 'reject',
               accept: () =>
                 remove.mutate(
                   { classId: c.id, studentId: s.id },
-                  { onSuccess: () => notify({ severity: 'success', summary: `${name} left ${c.name}.` }) },
+                  {
+                    onSuccess: () =>
+                      notify({ severity: 'success', summary: `${name} left ${c.name}.` }),
+                  },
                 ),
             })
           }
@@ -95,7 +101,15 @@ export function ClassDetailPage() {
           onClick={() =>
             updateStudent.mutate(
               { id: s.id, changes: { active: !s.active } },
-              { onSuccess: () => notify({ severity: 'success', summary: s.active ? `${name} is deactivated; their records stay.` : `${name} is active again.` }) },
+              {
+                onSuccess: () =>
+                  notify({
+                    severity: 'success',
+                    summary: s.active
+                      ? `${name} is deactivated; their records stay.`
+                      : `${name} is active again.`,
+                  }),
+              },
             )
           }
         />
@@ -116,13 +130,23 @@ export function ClassDetailPage() {
           </p>
         </div>
         <div className="sm-row-actions">
-          <Button type="button" label="Add a student" icon="pi pi-user-plus" severity="secondary" onClick={() => setAdding(true)} />
+          <Button
+            type="button"
+            label="Add a student"
+            icon="pi pi-user-plus"
+            severity="secondary"
+            onClick={() => setAdding(true)}
+          />
           <Button
             type="button"
             label="Export CSV"
             icon="pi pi-download"
             severity="secondary"
-            onClick={() => void downloadFile(`/classes/${c.id}/export`, `class-${c.code}.csv`).catch((e: unknown) => notify({ severity: 'error', summary: String(e) }))}
+            onClick={() =>
+              void downloadFile(`/classes/${c.id}/export`, `class-${c.code}.csv`).catch(
+                (e: unknown) => notify({ severity: 'error', summary: String(e) }),
+              )
+            }
           />
           <Button
             type="button"
@@ -131,7 +155,15 @@ export function ClassDetailPage() {
             onClick={() =>
               updateClass.mutate(
                 { id: c.id, changes: { active: !c.active } },
-                { onSuccess: () => notify({ severity: 'success', summary: c.active ? `${c.name} is deactivated.` : `${c.name} is active again.` }) },
+                {
+                  onSuccess: () =>
+                    notify({
+                      severity: 'success',
+                      summary: c.active
+                        ? `${c.name} is deactivated.`
+                        : `${c.name} is active again.`,
+                    }),
+                },
               )
             }
           />
@@ -140,7 +172,9 @@ export function ClassDetailPage() {
       <dl className="sm-class-meta">
         <div>
           <dt>Teachers</dt>
-          <dd>{c.teachers.length ? c.teachers.map((t) => t.displayName).join(', ') : 'No teacher yet'}</dd>
+          <dd>
+            {c.teachers.length ? c.teachers.map((t) => t.displayName).join(', ') : 'No teacher yet'}
+          </dd>
         </div>
         <div>
           <dt>Students</dt>
@@ -148,18 +182,36 @@ export function ClassDetailPage() {
         </div>
       </dl>
       <div className="sm-table-wrap">
-        <DataTable value={c.members} dataKey="id" size="small" aria-label="Students in the class" emptyMessage="No students in this class yet.">
+        <DataTable
+          value={c.members}
+          dataKey="id"
+          size="small"
+          aria-label="Students in the class"
+          emptyMessage="No students in this class yet."
+        >
           <Column field="pupilNumber" header="Pupil number" />
           <Column header="Name" body={nameBody} />
           <Column field="dateOfBirth" header="Date of birth" style={{ whiteSpace: 'nowrap' }} />
           <Column field="grade" header="Grade" />
           <Column header="Guardians" body={guardiansBody} />
           <Column header="Classes" body={(s: StudentRow) => s.classCodes.join(', ')} />
-          <Column header="Sign-in" body={(s: StudentRow) => (s.hasSignIn ? 'Yes' : <span className="sm-muted">No</span>)} />
-          <Column header={<span className="sm-visually-hidden">Actions</span>} body={actionsBody} style={{ width: '14rem' }} />
+          <Column
+            header="Sign-in"
+            body={(s: StudentRow) => (s.hasSignIn ? 'Yes' : <span className="sm-muted">No</span>)}
+          />
+          <Column
+            header={<span className="sm-visually-hidden">Actions</span>}
+            body={actionsBody}
+            style={{ width: '14rem' }}
+          />
         </DataTable>
       </div>
-      <AddStudentDialog target={c} classes={classes.data ?? []} visible={adding} onHide={() => setAdding(false)} />
+      <AddStudentDialog
+        target={c}
+        classes={classes.data ?? []}
+        visible={adding}
+        onHide={() => setAdding(false)}
+      />
       <ConfirmDialog />
     </section>
   );

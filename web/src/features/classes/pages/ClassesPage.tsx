@@ -24,8 +24,18 @@ export function ClassesPage() {
   const [creating, setCreating] = useState(false);
 
   const nameBody = (c: ClassRow) => <Link to={paths.classDetail.href(c.id)}>{c.name}</Link>;
-  const teachersBody = (c: ClassRow) => (c.teachers.length ? c.teachers.map((t) => t.displayName).join(', ') : <span className="sm-muted">No teacher yet</span>);
-  const statusBody = (c: ClassRow) => (c.active ? <Tag severity="success" value="Active" /> : <Tag severity="warning" value="Deactivated" />);
+  const teachersBody = (c: ClassRow) =>
+    c.teachers.length ? (
+      c.teachers.map((t) => t.displayName).join(', ')
+    ) : (
+      <span className="sm-muted">No teacher yet</span>
+    );
+  const statusBody = (c: ClassRow) =>
+    c.active ? (
+      <Tag severity="success" value="Active" />
+    ) : (
+      <Tag severity="warning" value="Deactivated" />
+    );
   const actionsBody = (c: ClassRow) => (
     <Button
       type="button"
@@ -36,7 +46,11 @@ export function ClassesPage() {
       aria-label={`Export ${c.name} as CSV`}
       onClick={() =>
         void downloadFile(`/classes/${c.id}/export`, `class-${c.code}.csv`).catch((e: unknown) =>
-          notify({ severity: 'error', summary: 'The class list could not be exported.', detail: e instanceof Error ? e.message : undefined }),
+          notify({
+            severity: 'error',
+            summary: 'The class list could not be exported.',
+            detail: e instanceof Error ? e.message : undefined,
+          }),
         )
       }
     />
@@ -48,12 +62,24 @@ export function ClassesPage() {
         <div>
           <h1 id="classes-title">Classes</h1>
           <p className="sm-page-subtitle">
-            {isAdmin ? 'Every class of the school, with its teachers.' : 'The classes you teach.'} Import a class list to add or update students.
+            {isAdmin ? 'Every class of the school, with its teachers.' : 'The classes you teach.'}{' '}
+            Import a class list to add or update students.
           </p>
         </div>
         <div className="sm-row-actions">
-          <Button type="button" label="New class" icon="pi pi-plus" severity="secondary" onClick={() => setCreating(true)} />
-          <Button type="button" label="Import a class list" icon="pi pi-upload" onClick={() => setImporting(true)} />
+          <Button
+            type="button"
+            label="New class"
+            icon="pi pi-plus"
+            severity="secondary"
+            onClick={() => setCreating(true)}
+          />
+          <Button
+            type="button"
+            label="Import a class list"
+            icon="pi pi-upload"
+            onClick={() => setImporting(true)}
+          />
         </div>
       </div>
 
@@ -65,14 +91,22 @@ export function ClassesPage() {
           size="small"
           aria-label="Classes"
           loading={classes.isFetching}
-          emptyMessage={classes.isPending ? 'Loading…' : 'No classes yet. Import a class list or create a class.'}
+          emptyMessage={
+            classes.isPending
+              ? 'Loading…'
+              : 'No classes yet. Import a class list or create a class.'
+          }
         >
           <Column header="Class" body={nameBody} />
           <Column field="code" header="Code" />
           <Column header="Teachers" body={teachersBody} />
           <Column field="memberCount" header="Students" />
           <Column header="Status" body={statusBody} />
-          <Column header={<span className="sm-visually-hidden">Actions</span>} body={actionsBody} style={{ width: '10rem' }} />
+          <Column
+            header={<span className="sm-visually-hidden">Actions</span>}
+            body={actionsBody}
+            style={{ width: '10rem' }}
+          />
         </DataTable>
       </div>
       <ImportDialog visible={importing} onHide={() => setImporting(false)} />

@@ -10,5 +10,11 @@ export function getOutbox(signal?: AbortSignal): Promise<OutboxList> {
 
 export function useOutbox() {
   // Mail goes out a moment after the change that causes it: look again every few seconds.
-  return useQuery(queryOptions({ queryKey: outboxKey, queryFn: ({ signal }) => getOutbox(signal), refetchInterval: 5000 }));
+  return useQuery(
+    queryOptions({
+      queryKey: outboxKey,
+      queryFn: ({ signal }) => getOutbox(signal),
+      refetchInterval: 5000,
+    }),
+  );
 }

@@ -17,7 +17,13 @@ const KIND: Record<OutboxItem['kind'], string> = {
 };
 
 const formatReceived = (iso: string, timeZone: string) =>
-  new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' }).format(new Date(iso));
+  new Intl.DateTimeFormat('en-GB', {
+    timeZone,
+    day: 'numeric',
+    month: 'short',
+    hour: '2-digit',
+    minute: '2-digit',
+  }).format(new Date(iso));
 
 /** The text part with its web addresses as links, so a link in a caught invitation can be followed. */
 function TextWithLinks({ text }: { text: string }) {
@@ -52,12 +58,21 @@ export function OutboxPage() {
       <div className="sm-page-header">
         <div>
           <h1 id="outbox-title">Outbox</h1>
-          <p className="sm-page-subtitle">E-mails this server sent to its local mail catcher, as their recipients see them. Not available in production.</p>
+          <p className="sm-page-subtitle">
+            E-mails this server sent to its local mail catcher, as their recipients see them. Not
+            available in production.
+          </p>
         </div>
       </div>
-      {missing && <Alert severity="info">This server sends e-mail to a real mail service, so there is no Outbox to show.</Alert>}
+      {missing && (
+        <Alert severity="info">
+          This server sends e-mail to a real mail service, so there is no Outbox to show.
+        </Alert>
+      )}
       {outbox.isError && !missing && <ErrorMessage error={outbox.error} what="the Outbox" />}
-      {outbox.data && !outbox.data.catcher && <Alert severity="info">This server has no local mail catcher folder configured.</Alert>}
+      {outbox.data && !outbox.data.catcher && (
+        <Alert severity="info">This server has no local mail catcher folder configured.</Alert>
+      )}
       <div className="sm-outbox">
         <div className="sm-table-wrap">
           <DataTable
@@ -72,7 +87,11 @@ export function OutboxPage() {
             rows={20}
             emptyMessage={outbox.isPending ? 'Loading…' : 'No e-mail yet.'}
           >
-            <Column header="Received" body={(m: OutboxItem) => formatReceived(m.receivedAt, timeZone)} style={{ width: '8rem' }} />
+            <Column
+              header="Received"
+              body={(m: OutboxItem) => formatReceived(m.receivedAt, timeZone)}
+              style={{ width: '8rem' }}
+            />
             <Column
               header="E-mail"
               body={(m: OutboxItem) => (
@@ -98,7 +117,12 @@ export function OutboxPage() {
               <>
                 <h3>HTML part</h3>
                 {/* Sandboxed: no scripts, no navigation from the message itself. */}
-                <iframe title={`HTML part of “${shown.subject}”`} className="sm-mail-html" sandbox="" srcDoc={shown.html} />
+                <iframe
+                  title={`HTML part of “${shown.subject}”`}
+                  className="sm-mail-html"
+                  sandbox=""
+                  srcDoc={shown.html}
+                />
               </>
             )}
           </article>
