@@ -23,6 +23,9 @@ TEST_MAIL_CATCHER_DIR="${TEST_MAIL_CATCHER_DIR:-$LOCAL_DIR/mail-test}"
 E2E_PORT="${E2E_PORT:-3100}"
 E2E_URL="http://127.0.0.1:$E2E_PORT"
 E2E_ACCESS_TOKEN_TTL_SECONDS=5 # short, so the browser tests see a silent refresh
+E2E_API_ACCESS_TOKEN_TTL_SECONDS=900 # the default, for the jest e2e suite
+# e2e and browser suites share the server and sign the demo people in many times a minute.
+E2E_LOGIN_LIMIT_PER_EMAIL=30
 REPORT_DIR="$LOCAL_DIR/test-reports" # the latest report of each suite, copied at the end
 CHROMIUM=/usr/bin/chromium
 
@@ -231,7 +234,7 @@ if wants api; then
 fi
 
 # --- a server for e2e and browser suites -------------------------------------------------------
-start_e2e_server() {
+prepare_e2e_database() {
   local db_url_e2e
   # A run that was killed (kill -9) may have left its database behind. Only names this script
   # makes (stavemark_e2e_<timestamp>_<pid>) whose run is gone are dropped; nothing else is touched.
@@ -255,10 +258,16 @@ start_e2e_server() {
     node "$STAVEMARK_ROOT/api/dist/database/migrate.js" || return 1
   timed "e2e seed" env -u SEED_TODAY DATABASE_URL="$db_url_e2e" \
     node "$STAVEMARK_ROOT/api/dist/seed/seed.js" || return 1
+  E2E_DATABASE_URL="$db_url_e2e"
+}
+
+# Starts the server on the e2e database with the given access-token lifetime (seconds).
+start_e2e_server() {
+  local ttl="$1" db_url_e2e="$E2E_DATABASE_URL"
   local start="$EPOCHREALTIME"
   (cd "$STAVEMARK_ROOT" && exec env -u SEED_TODAY "${TEST_ENV[@]}" NODE_ENV=test PORT="$E2E_PORT" \
-    DATABASE_URL="$db_url_e2e" ACCESS_TOKEN_TTL_SECONDS="$E2E_ACCESS_TOKEN_TTL_SECONDS" \
-    PUBLIC_URL="$E2E_URL" WEB_DIST="$WEB_DIST" \
+    DATABASE_URL="$db_url_e2e" ACCESS_TOKEN_TTL_SECONDS="$ttl" \
+    PUBLIC_URL="$E2E_URL" WEB_DIST="$WEB_DIST" LOGIN_LIMIT_PER_EMAIL="$E2E_LOGIN_LIMIT_PER_EMAIL" \
     node api/dist/main.js >"$LOG_DIR/e2e-server.log" 2>&1 8>&- </dev/null) &
   SERVER_PID=$!
   if ! wait_for_http "$E2E_URL/api/health" 60 "$SERVER_PID"; then
@@ -269,22 +278,41 @@ start_e2e_server() {
   STEP_NAMES+=("e2e server start")
   STEP_SECONDS+=("$(elapsed_since "$start")")
   STEP_STATUS+=(0)
-  echo "e2e server is up at $E2E_URL (database $E2E_DB, log: $LOG_DIR/e2e-server.log)"
-  E2E_DATABASE_URL="$db_url_e2e"
+  echo "e2e server is up at $E2E_URL (database $E2E_DB, token lifetime ${ttl} s, log: $LOG_DIR/e2e-server.log)"
+}
+
+stop_e2e_server() {
+  [ -n "$SERVER_PID" ] || return 0
+  kill -TERM "$SERVER_PID" 2>/dev/null
+  for _ in $(seq 1 50); do kill -0 "$SERVER_PID" 2>/dev/null || break; sleep 0.2; done
+  kill -KILL "$SERVER_PID" 2>/dev/null
+  wait "$SERVER_PID" 2>/dev/null
+  SERVER_PID=""
 }
 
 if wants_any e2e browser; then
-  say "Starting the e2e server"
-  if ! start_e2e_server; then
-    for s in e2e browser; do not_run "$s" "the e2e server could not be prepared or started (output above)"; done
+  say "Preparing the e2e database"
+  if ! prepare_e2e_database; then
+    for s in e2e browser; do not_run "$s" "the e2e database could not be prepared (output above)"; done
   fi
 fi
 
+# The HTTP suites use the server's usual token lifetime; the browser suite restarts it with a
+# short one, so the journeys see a silent refresh.
+if wants e2e; then
+  say "Starting the e2e server"
+  start_e2e_server "$E2E_API_ACCESS_TOKEN_TTL_SECONDS" || not_run e2e "the e2e server did not start (output above)"
+fi
 if wants e2e; then
   r="$RUN_REPORTS/e2e.json"
-  run_suite e2e "$STAVEMARK_ROOT/api" "$r" env "${TEST_ENV[@]}" API_URL="$E2E_URL" \
-    DATABASE_URL="$E2E_DATABASE_URL" ACCESS_TOKEN_TTL_SECONDS="$E2E_ACCESS_TOKEN_TTL_SECONDS" \
+  run_suite e2e "$STAVEMARK_ROOT/api" "$r" env "${TEST_ENV[@]}" API_URL="$E2E_URL" LOGIN_LIMIT_PER_EMAIL="$E2E_LOGIN_LIMIT_PER_EMAIL" \
+    DATABASE_URL="$E2E_DATABASE_URL" ACCESS_TOKEN_TTL_SECONDS="$E2E_API_ACCESS_TOKEN_TTL_SECONDS" \
     "$NODE_BIN_DIR/jest" --config test/jest-e2e.config.cjs --json "--outputFile=$r"
+fi
+if wants browser; then
+  stop_e2e_server
+  say "Starting the e2e server for the browser suite"
+  start_e2e_server "$E2E_ACCESS_TOKEN_TTL_SECONDS" || not_run browser "the e2e server did not start (output above)"
 fi
 if wants browser; then
   r="$RUN_REPORTS/browser.json"

@@ -1,4 +1,5 @@
 import 'reflect-metadata';
+import { pathToFileURL } from 'node:url';
 import { DataSource } from 'typeorm';
 import { loadEnv } from '../config/env.js';
 import { dataSourceOptions } from './data-source-options.js';
@@ -15,7 +16,7 @@ export async function migrate(url: string): Promise<string[]> {
   }
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) {
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   migrate(loadEnv().DATABASE_URL)
     .then((ran) => console.log(ran.length ? `Migrated: ${ran.join(', ')}` : 'Database schema is up to date.'))
     .catch((err: unknown) => {

@@ -1,6 +1,6 @@
 import 'reflect-metadata';
 import { dirname, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { DataSource } from 'typeorm';
 import { localDate, now } from '../common/clock.js';
 import { loadEnv } from '../config/env.js';
@@ -29,7 +29,7 @@ export async function seed(url: string, today?: string): Promise<void> {
   }
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) {
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   seed(loadEnv().DATABASE_URL).catch((err: unknown) => {
     console.error('Seeding failed:', err instanceof Error ? err.message : err);
     process.exit(1);
