@@ -60,7 +60,7 @@ export class OutboundMail {
   toName: string;
 
   /** Names and facts the template needs; never a secret. */
-  @Column({ type: 'jsonb', default: () => `'{}'::jsonb` })
+  @Column({ type: 'jsonb' })
   data: Record<string, unknown>;
 
   /** The one-time link this mail carries, minted at send time. */
