@@ -9,6 +9,7 @@ import { Organisation } from '../organisations/entities/organisation.entity.js';
 import { Term } from '../organisations/entities/term.entity.js';
 import { Student } from '../students/entities/student.entity.js';
 import { Membership } from '../users/entities/membership.entity.js';
+import { Sitting } from '../sittings/entities/sitting.entity.js';
 
 export interface TodayView {
   date: string;
@@ -17,7 +18,9 @@ export interface TodayView {
   roles: string[];
   admin?: { people: number; students: number; classes: number; term: { name: string; startsOn: string; endsOn: string } | null };
   teacher?: { classes: { id: string; name: string; code: string; grade: number | null; studentCount: number }[] };
-  examiner?: { sittings: never[] };
+  examiner?: {
+    sittings: { id: string; title: string; room: string; startsAt: string; endsAt: string; status: string; mySlots: number }[];
+  };
   student?: { name: string; grade: number | null; classes: { id: string; name: string; code: string; teachers: string[] }[] };
 }
 
@@ -27,6 +30,7 @@ export class TodayService {
   private readonly students: ScopedRepository<Student>;
   private readonly classes: ScopedRepository<ClassGroup>;
   private readonly terms: ScopedRepository<Term>;
+  private readonly sittings: ScopedRepository<Sitting>;
 
   constructor(
     @InjectRepository(Membership) m: Repository<Membership>,
@@ -34,7 +38,9 @@ export class TodayService {
     @InjectRepository(ClassGroup) c: Repository<ClassGroup>,
     @InjectRepository(Term) t: Repository<Term>,
     @InjectRepository(Organisation) private readonly orgs: Repository<Organisation>,
+    @InjectRepository(Sitting) st: Repository<Sitting>,
   ) {
+    this.sittings = new ScopedRepository(st, 'sitting');
     this.memberships = new ScopedRepository(m, 'person');
     this.students = new ScopedRepository(s, 'student');
     this.classes = new ScopedRepository(c, 'class');
@@ -74,8 +80,26 @@ export class TodayService {
         .getRawMany<{ id: string; name: string; code: string; grade: number | null; studentCount: number }>();
       view.teacher = { classes: rows };
     }
-    // Sittings arrive with the sittings feature; until then an examiner has none to show.
-    if (caller.roles.includes('examiner')) view.examiner = { sittings: [] };
+    if (caller.roles.includes('examiner')) {
+      // Today's sittings (in the organisation's zone) with at least one slot this examiner marks.
+      const rows = await this.sittings
+        .qb('s')
+        .innerJoin('s.slots', 'sl', '(sl.examinerMembershipId = :mid OR sl.secondExaminerMembershipId = :mid)', {
+          mid: caller.membershipId,
+        })
+        .select(['s.id AS id', 's.title AS title', 's.room AS room', 's.status AS status'])
+        .addSelect('s.startsAt', 'startsAt')
+        .addSelect('s.endsAt', 'endsAt')
+        .addSelect('COUNT(sl.id)::int', 'mySlots')
+        .andWhere('s.date = :date', { date })
+        .andWhere("s.status IN ('scheduled', 'in_progress', 'marking_closed')")
+        .groupBy('s.id')
+        .orderBy('s.startsAt')
+        .getRawMany<{ id: string; title: string; room: string; status: string; startsAt: Date; endsAt: Date; mySlots: number }>();
+      view.examiner = {
+        sittings: rows.map((r) => ({ ...r, startsAt: new Date(r.startsAt).toISOString(), endsAt: new Date(r.endsAt).toISOString() })),
+      };
+    }
     if (caller.roles.includes('student')) {
       const me = await this.students.findOne({
         where: { membershipId: caller.membershipId },

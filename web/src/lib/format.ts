@@ -29,6 +29,13 @@ export function formatDateInZone(isoInstant: string, timeZone: string): string {
   }).format(date);
 }
 
+/** An instant shown as a 24-hour clock time in the organisation's time zone, e.g. 09:30. */
+export function formatTimeInZone(isoInstant: string, timeZone: string): string {
+  const date = new Date(isoInstant);
+  if (Number.isNaN(date.getTime())) return isoInstant;
+  return new Intl.DateTimeFormat('en-GB', { timeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(date);
+}
+
 export function formatCount(n: number, singular: string, plural = `${singular}s`): string {
   return `${new Intl.NumberFormat(LOCALE).format(n)} ${n === 1 ? singular : plural}`;
 }

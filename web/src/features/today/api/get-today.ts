@@ -25,8 +25,16 @@ export interface TodayView {
     }[];
   };
   examiner?: {
-    /** Empty until sittings exist (a later issue fills in their shape). */
-    sittings: { id: string }[];
+    /** Today's sittings with at least one slot the caller marks. */
+    sittings: {
+      id: string;
+      title: string;
+      room: string;
+      status: string;
+      startsAt: string;
+      endsAt: string;
+      mySlots: number;
+    }[];
   };
   student?: {
     name: string;

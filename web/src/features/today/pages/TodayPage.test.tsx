@@ -42,6 +42,37 @@ describe('Today page', () => {
     expect(screen.queryByRole('region', { name: 'Your lessons' })).not.toBeInTheDocument();
   });
 
+  it('lists an examiner’s sittings with times in the organisation’s zone and a way to the desk', async () => {
+    mockApi({
+      'GET /api/today': () =>
+        json(200, {
+          date: '2026-07-01',
+          timeZone: 'Europe/London',
+          organisationName: 'Larkfield Music School',
+          roles: ['examiner'],
+          examiner: {
+            sittings: [
+              {
+                id: 's1',
+                title: 'Summer mock, grade 3',
+                room: 'Studio 2',
+                status: 'scheduled',
+                // 08:30 UTC is 09:30 in London in July: British Summer Time is UTC+1 (IANA tz database).
+                startsAt: '2026-07-01T08:30:00.000Z',
+                endsAt: '2026-07-01T11:00:00.000Z',
+                mySlots: 6,
+              },
+            ],
+          },
+        }),
+    });
+    renderApp('/', makeSession(makeUser(['examiner'])));
+    const region = await screen.findByRole('region', { name: 'Your sittings today' });
+    const rows = within(region).getAllByRole('row');
+    expect(rows[1]?.textContent).toBe('Summer mock, grade 3Studio 209:30–12:006 candidates');
+    expect(within(region).getByRole('link', { name: 'Open the marking desk' })).toHaveAttribute('href', '/marking');
+  });
+
   it('gives an administrator the figures and the current term', async () => {
     mockApi({
       'GET /api/today': () =>

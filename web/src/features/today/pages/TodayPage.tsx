@@ -33,7 +33,7 @@ export function TodayPage() {
         <>
           {today.data.admin && <AdminToday data={today.data.admin} />}
           {today.data.teacher && <TeacherToday data={today.data.teacher} />}
-          {today.data.examiner && <ExaminerToday data={today.data.examiner} />}
+          {today.data.examiner && <ExaminerToday data={today.data.examiner} timeZone={today.data.timeZone} />}
           {today.data.student && <StudentToday data={today.data.student} />}
         </>
       )}
