@@ -15,6 +15,7 @@ export const navItems: readonly NavItem[] = [
   { to: paths.people.href(), label: 'People', roles: paths.people.roles },
   { to: paths.classes.href(), label: 'Classes', roles: paths.classes.roles },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },
+  { to: paths.marking.href(), label: 'Marking', roles: paths.marking.roles },
 ];
 
 export function navItemsFor(roles: readonly Role[]): NavItem[] {

@@ -84,6 +84,18 @@ export const routes: RouteObject[] = [
           return { element: <RequireAuth roles={paths.outbox.roles}><OutboxPage /></RequireAuth> };
         },
       },
+      // The marking desk: its own chunks (no chart library), examiners only.
+      ...(
+        [
+          [paths.marking, () => import('@/features/marking/pages/MarkingPage').then((m) => <m.MarkingPage />)],
+          [paths.markingDesk, () => import('@/features/marking/pages/DeskPage').then((m) => <m.DeskPage />)],
+        ] as const
+      ).map(
+        ([route, load]): RouteObject => ({
+          path: route.path,
+          lazy: async () => ({ element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth> }),
+        }),
+      ),
       { path: '*', element: <NotFoundPage /> },
     ],
   },

@@ -21,6 +21,13 @@ export const paths = {
   resetPassword: { path: '/account/reset-password', href: () => '/account/reset-password', roles: ROLES },
   forgotPassword: { path: '/account/forgot-password', href: () => '/account/forgot-password', roles: ROLES },
   consent: { path: '/account/consent', href: () => '/account/consent', roles: ROLES },
+  // The marking desk (issue 6): examiners only, their own slots.
+  marking: { path: '/marking', href: () => '/marking', roles: ['examiner'] },
+  markingDesk: {
+    path: '/marking/slots/:slotId',
+    href: (slotId: string) => `/marking/slots/${encodeURIComponent(slotId)}`,
+    roles: ['examiner'],
+  },
 } as const satisfies Record<
   string,
   { path: string; href: (...args: never[]) => string; roles: readonly Role[] }

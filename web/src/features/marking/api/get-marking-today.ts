@@ -9,7 +9,10 @@ export function getMarkingToday(signal?: AbortSignal): Promise<MarkingSittingSum
 }
 
 export const markingTodayQueryOptions = () =>
-  queryOptions({ queryKey: [...markingKey, 'today'], queryFn: ({ signal }) => getMarkingToday(signal) });
+  queryOptions({
+    queryKey: [...markingKey, 'today'],
+    queryFn: ({ signal }) => getMarkingToday(signal),
+  });
 
 export function useMarkingToday() {
   return useQuery(markingTodayQueryOptions());

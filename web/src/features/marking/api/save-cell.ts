@@ -8,5 +8,10 @@ export const saveCellTo =
   (change) =>
     apiRequest<SaveResult>(`/mark-sheets/${encodeURIComponent(sheetId)}/cells`, {
       method: 'POST',
-      body: { changeId: change.changeId, cell: change.cell, value: change.value, baseVersion: change.baseVersion },
+      body: {
+        changeId: change.changeId,
+        cell: change.cell,
+        value: change.value,
+        baseVersion: change.baseVersion,
+      },
     });

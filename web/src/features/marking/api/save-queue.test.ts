@@ -18,7 +18,13 @@ class MemoryStorage {
 
 let n = 0;
 const ids = () => `00000000-0000-4000-8000-${String(++n).padStart(12, '0')}`;
-const applied = (c: QueuedChange & { baseVersion: number }): SaveResult => ({ status: 'applied', cell: c.cell, value: c.value, version: c.baseVersion + 1, changeId: c.changeId });
+const applied = (c: QueuedChange & { baseVersion: number }): SaveResult => ({
+  status: 'applied',
+  cell: c.cell,
+  value: c.value,
+  version: c.baseVersion + 1,
+  changeId: c.changeId,
+});
 const until = async (cond: () => boolean) => {
   for (let i = 0; i < 200 && !cond(); i++) await new Promise((r) => setTimeout(r, 5));
   expect(cond()).toBe(true);
@@ -45,7 +51,12 @@ describe('the marking save queue', () => {
   it('keeps changes through a dropped connection and a reload, then drains with the same change ids', async () => {
     const storage = new MemoryStorage();
     const key = queueKey('person-1', 'sheet-1');
-    const down = new SaveQueue(key, () => Promise.reject(new TypeError('Failed to fetch')), storage, ids);
+    const down = new SaveQueue(
+      key,
+      () => Promise.reject(new TypeError('Failed to fetch')),
+      storage,
+      ids,
+    );
     const a = down.enqueue('mark:0:a', 7);
     const b = down.enqueue('comment:overall', 'Even tone');
     await until(() => down.getSnapshot().state === 'offline');
@@ -70,7 +81,8 @@ describe('the marking save queue', () => {
     vi.useFakeTimers();
     let fail = 2;
     const send = vi.fn(async (c: QueuedChange & { baseVersion: number }) => {
-      if (fail-- > 0) throw new ApiError({ statusCode: 503, error: 'Service Unavailable', message: 'down' });
+      if (fail-- > 0)
+        throw new ApiError({ statusCode: 503, error: 'Service Unavailable', message: 'down' });
       return applied(c);
     });
     const q = new SaveQueue('k', send, new MemoryStorage(), ids);
@@ -90,8 +102,17 @@ describe('the marking save queue', () => {
       'k',
       async (c) => {
         if (c.cell === 'mark:0:a')
-          throw new ApiError({ statusCode: 409, error: 'Conflict', message: 'changed', details: { kind: 'cell_conflict', cell: c.cell, yours: c.value, theirs: 2, version: 5 } });
-        throw new ApiError({ statusCode: 400, error: 'Bad Request', message: 'Evenness is marked out of 5.' });
+          throw new ApiError({
+            statusCode: 409,
+            error: 'Conflict',
+            message: 'changed',
+            details: { kind: 'cell_conflict', cell: c.cell, yours: c.value, theirs: 2, version: 5 },
+          });
+        throw new ApiError({
+          statusCode: 400,
+          error: 'Bad Request',
+          message: 'Evenness is marked out of 5.',
+        });
       },
       new MemoryStorage(),
       ids,

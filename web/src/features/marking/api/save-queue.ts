@@ -38,10 +38,13 @@ interface StorageLike {
 }
 
 /** Storage key: per person and sheet, so a shared tablet keeps each examiner's queue apart. */
-export const queueKey = (personId: string, sheetId: string) => `stavemark.marking.v1.${personId}.${sheetId}`;
+export const queueKey = (personId: string, sheetId: string) =>
+  `stavemark.marking.v1.${personId}.${sheetId}`;
 
 const isNetworkFailure = (e: unknown) =>
-  e instanceof TypeError || (e instanceof ApiError && (e.status >= 500 || e.status === 429)) || (e instanceof DOMException && e.name !== 'AbortError');
+  e instanceof TypeError ||
+  (e instanceof ApiError && (e.status >= 500 || e.status === 429)) ||
+  (e instanceof DOMException && e.name !== 'AbortError');
 
 /**
  * The client's queue of cell saves. Every change is written to storage before it is sent, so a
@@ -76,7 +79,8 @@ export class SaveQueue {
 
   /** The versions the client knows, from the sheet it loaded. */
   seedVersions(cells: { cell: string; version: number }[]): void {
-    for (const c of cells) if ((this.versions.get(c.cell) ?? -1) < c.version) this.versions.set(c.cell, c.version);
+    for (const c of cells)
+      if ((this.versions.get(c.cell) ?? -1) < c.version) this.versions.set(c.cell, c.version);
   }
 
   versionOf(cell: string): number {
@@ -154,13 +158,21 @@ export class SaveQueue {
         } catch (e) {
           if (e instanceof ApiError && e.status === 409 && isConflictDetails(e.body.details)) {
             const d = e.body.details;
-            this.conflicts.push({ cell: d.cell, yours: d.yours, theirs: d.theirs, version: d.version });
+            this.conflicts.push({
+              cell: d.cell,
+              yours: d.yours,
+              theirs: d.theirs,
+              version: d.version,
+            });
           } else if (isNetworkFailure(e) || e instanceof SessionEndedError) {
             this.offline = true;
             this.scheduleRetry();
             return;
           } else {
-            this.refused.push({ change: head, message: e instanceof Error ? e.message : String(e) });
+            this.refused.push({
+              change: head,
+              message: e instanceof Error ? e.message : String(e),
+            });
           }
         }
         this.items.shift();
@@ -213,6 +225,14 @@ export class SaveQueue {
   }
 }
 
-function isConflictDetails(d: unknown): d is { kind: 'cell_conflict'; cell: string; yours: CellValue; theirs: CellValue; version: number } {
+function isConflictDetails(
+  d: unknown,
+): d is {
+  kind: 'cell_conflict';
+  cell: string;
+  yours: CellValue;
+  theirs: CellValue;
+  version: number;
+} {
   return typeof d === 'object' && d !== null && (d as { kind?: unknown }).kind === 'cell_conflict';
 }

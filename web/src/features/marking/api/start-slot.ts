@@ -10,7 +10,10 @@ export function startSlot(slotId: string): Promise<DeskView> {
 
 /** Opens a scheduled sitting on its day (the sittings API allows the examiner on the panel). */
 export function openSitting(sittingId: string): Promise<unknown> {
-  return apiRequest(`/sittings/${encodeURIComponent(sittingId)}/status`, { method: 'POST', body: { status: 'in_progress' } });
+  return apiRequest(`/sittings/${encodeURIComponent(sittingId)}/status`, {
+    method: 'POST',
+    body: { status: 'in_progress' },
+  });
 }
 
 export function useStartSlot(slotId: string) {

@@ -5,7 +5,10 @@ import { deskQueryOptions } from './get-desk';
 import { markingKey } from './get-marking-today';
 
 export function submitSheet(sheetId: string, body: SubmitSheetInput): Promise<DeskView> {
-  return apiRequest<DeskView>(`/mark-sheets/${encodeURIComponent(sheetId)}/submit`, { method: 'POST', body });
+  return apiRequest<DeskView>(`/mark-sheets/${encodeURIComponent(sheetId)}/submit`, {
+    method: 'POST',
+    body,
+  });
 }
 
 export function useSubmitSheet(slotId: string, sheetId: string) {

@@ -15,7 +15,10 @@ export function Countdown({ endsAt, label }: { endsAt: number; label: string }) 
   const left = (endsAt - now) / 1000;
   const over = left < 0;
   return (
-    <div className={`sm-desk-clock${over ? ' sm-desk-clock--over' : ''}`} aria-label={`${label}: ${over ? `${mmss(left)} over` : `${mmss(left)} left`}`}>
+    <div
+      className={`sm-desk-clock${over ? ' sm-desk-clock--over' : ''}`}
+      aria-label={`${label}: ${over ? `${mmss(left)} over` : `${mmss(left)} left`}`}
+    >
       <span className="sm-desk-clock__label">{label}</span>
       <span className="sm-desk-clock__time">{over ? `+${mmss(left)}` : mmss(left)}</span>
       {over && <span className="sm-desk-clock__note">over time</span>}

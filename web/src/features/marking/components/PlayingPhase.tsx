@@ -1,13 +1,28 @@
 import { useEffect } from 'react';
-import { cellName, formatFingering, QUICK_FLAGS, QUICK_FLAG_LABELS, type DeskRequest, type DeskView, type QuickFlag } from '@stavemark/shared';
+import {
+  cellName,
+  formatFingering,
+  QUICK_FLAGS,
+  QUICK_FLAG_LABELS,
+  type DeskRequest,
+  type DeskView,
+  type QuickFlag,
+} from '@stavemark/shared';
 import { requestDetails, requestTitle, tempoText } from './request-text';
 import { MarkButtons } from './MarkButtons';
 import type { SheetState } from './useSheet';
 
 /** One key per quick flag; arrows move between requests (shown on the buttons). */
-export const FLAG_KEYS: Record<QuickFlag, string> = { slip: 'f', restart: 'r', stopped: 's', prompted: 'p' };
+export const FLAG_KEYS: Record<QuickFlag, string> = {
+  slip: 'f',
+  restart: 'r',
+  stopped: 's',
+  prompted: 'p',
+};
 
-const isTyping = (t: EventTarget | null) => t instanceof HTMLElement && (t.tagName === 'INPUT' || t.tagName === 'TEXTAREA' || t.isContentEditable);
+const isTyping = (t: EventTarget | null) =>
+  t instanceof HTMLElement &&
+  (t.tagName === 'INPUT' || t.tagName === 'TEXTAREA' || t.isContentEditable);
 
 export function PlayingPhase({
   desk,
@@ -33,7 +48,9 @@ export function PlayingPhase({
     const onKey = (e: KeyboardEvent) => {
       if (isTyping(e.target) || e.ctrlKey || e.metaKey || e.altKey || !r) return;
       const key = e.key.toLowerCase();
-      const flag = (Object.entries(FLAG_KEYS) as [QuickFlag, string][]).find(([, k]) => k === key)?.[0];
+      const flag = (Object.entries(FLAG_KEYS) as [QuickFlag, string][]).find(
+        ([, k]) => k === key,
+      )?.[0];
       if (flag && !sheet.readOnly) {
         e.preventDefault();
         sheet.set(cellName.flag(r.index, flag), count(r, flag) + 1);
@@ -57,7 +74,13 @@ export function PlayingPhase({
     <div className="sm-desk-playing">
       <nav className="sm-desk-steps" aria-label="Requests">
         {requests.map((q, i) => (
-          <button key={q.index} type="button" className={`sm-desk-step${i === current ? ' sm-desk-step--current' : ''}`} aria-current={i === current ? 'step' : undefined} onClick={() => setCurrent(i)}>
+          <button
+            key={q.index}
+            type="button"
+            className={`sm-desk-step${i === current ? ' sm-desk-step--current' : ''}`}
+            aria-current={i === current ? 'step' : undefined}
+            onClick={() => setCurrent(i)}
+          >
             {i + 1}
           </button>
         ))}
@@ -66,7 +89,11 @@ export function PlayingPhase({
       <article className="sm-desk-request" aria-labelledby="current-request">
         <p className="sm-desk-request__count">
           Request {current + 1} of {requests.length}
-          {r.substitution && <span className="sm-desk-badge">adjusted: {r.substitution.types.join(', ').replaceAll('_', ' ')}</span>}
+          {r.substitution && (
+            <span className="sm-desk-badge">
+              adjusted: {r.substitution.types.join(', ').replaceAll('_', ' ')}
+            </span>
+          )}
         </p>
         <h2 id="current-request" className="sm-desk-request__title">
           {requestTitle(r)}
@@ -113,19 +140,34 @@ export function PlayingPhase({
         {r.criteria.map((c) => (
           <div key={c.key} className="sm-desk-quickmark">
             <span>{c.label}</span>
-            <MarkButtons criterion={c} value={sheet.values.get(cellName.mark(r.index, c.key))} disabled={sheet.readOnly} onSet={(v) => sheet.set(cellName.mark(r.index, c.key), v)} />
+            <MarkButtons
+              criterion={c}
+              value={sheet.values.get(cellName.mark(r.index, c.key))}
+              disabled={sheet.readOnly}
+              onSet={(v) => sheet.set(cellName.mark(r.index, c.key), v)}
+            />
           </div>
         ))}
       </details>
 
       <div className="sm-desk-actions">
-        <button type="button" className="sm-desk-nav" onClick={() => setCurrent(Math.max(current - 1, 0))} disabled={current === 0}>
+        <button
+          type="button"
+          className="sm-desk-nav"
+          onClick={() => setCurrent(Math.max(current - 1, 0))}
+          disabled={current === 0}
+        >
           ← Previous
         </button>
-        <button type="button" className="sm-desk-nav" onClick={() => setCurrent(Math.min(current + 1, requests.length - 1))} disabled={current === requests.length - 1}>
+        <button
+          type="button"
+          className="sm-desk-nav"
+          onClick={() => setCurrent(Math.min(current + 1, requests.length - 1))}
+          disabled={current === requests.length - 1}
+        >
           Next →
         </button>
-        <button type="button" className="sm-button-primary" onClick={onWriteUp}>
+        <button type="button" className="sm-desk-primary" onClick={onWriteUp}>
           Candidate has left: write up (W)
         </button>
       </div>

@@ -9,7 +9,12 @@ export function SaveStatus({ snapshot }: { snapshot: QueueSnapshot }) {
         ? `Saving… (${snapshot.pending})`
         : 'All changes saved';
   return (
-    <p className={`sm-desk-status sm-desk-status--${snapshot.state}`} role="status" aria-live="polite" data-testid="save-status">
+    <p
+      className={`sm-desk-status sm-desk-status--${snapshot.state}`}
+      role="status"
+      aria-live="polite"
+      data-testid="save-status"
+    >
       {text}
     </p>
   );

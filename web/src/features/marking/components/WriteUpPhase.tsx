@@ -37,7 +37,17 @@ function descriptorFor(c: DeskCriterion, mark: CellValue | undefined): string | 
  * One criterion as a keyboard row: a digit sets the mark and moves on; arrows step it; Enter
  * moves on; Backspace clears. Tab goes through rows and comments in order.
  */
-function MarkRow({ request, criterion, sheet, disabled }: { request: DeskRequest; criterion: DeskCriterion; sheet: SheetState; disabled: boolean }) {
+function MarkRow({
+  request,
+  criterion,
+  sheet,
+  disabled,
+}: {
+  request: DeskRequest;
+  criterion: DeskCriterion;
+  sheet: SheetState;
+  disabled: boolean;
+}) {
   const cell = cellName.mark(request.index, criterion.key);
   const value = sheet.values.get(cell);
   const set = (v: number | null) => !disabled && sheet.set(cell, v);
@@ -72,6 +82,7 @@ function MarkRow({ request, criterion, sheet, disabled }: { request: DeskRequest
       role="group"
       tabIndex={disabled ? -1 : 0}
       data-desk-stop=""
+      data-cell={cell}
       aria-label={`Request ${request.index + 1}, ${criterion.label}: ${typeof value === 'number' ? `${value} of ${criterion.maxMark}` : 'not marked'}`}
       onKeyDown={onKey}
     >
@@ -80,12 +91,23 @@ function MarkRow({ request, criterion, sheet, disabled }: { request: DeskRequest
         <span className="sm-muted">out of {criterion.maxMark}</span>
       </div>
       <MarkButtons criterion={criterion} value={value} disabled={disabled} onSet={set} />
-      <p className="sm-desk-row__descriptor">{descriptor ?? <span className="sm-muted">{criterion.description ?? 'Type a digit to mark.'}</span>}</p>
+      <p className="sm-desk-row__descriptor">
+        {descriptor ?? (
+          <span className="sm-muted">{criterion.description ?? 'Type a digit to mark.'}</span>
+        )}
+      </p>
       <details className="sm-desk-row__levels">
         <summary>Level descriptors</summary>
         <ul>
           {criterion.descriptors.map((d) => (
-            <li key={`${d.min}-${d.max}`} className={typeof value === 'number' && value >= d.min && value <= d.max ? 'sm-desk-level--on' : undefined}>
+            <li
+              key={`${d.min}-${d.max}`}
+              className={
+                typeof value === 'number' && value >= d.min && value <= d.max
+                  ? 'sm-desk-level--on'
+                  : undefined
+              }
+            >
               <strong>{d.min === d.max ? d.min : `${d.min}–${d.max}`}</strong> {d.text}
             </li>
           ))}
@@ -101,7 +123,17 @@ function MarkRow({ request, criterion, sheet, disabled }: { request: DeskRequest
 }
 
 /** A comment saved when typing pauses and when the field is left, never per keystroke. */
-function CommentField({ cell, label, sheet, disabled }: { cell: string; label: string; sheet: SheetState; disabled: boolean }) {
+function CommentField({
+  cell,
+  label,
+  sheet,
+  disabled,
+}: {
+  cell: string;
+  label: string;
+  sheet: SheetState;
+  disabled: boolean;
+}) {
   const stored = sheet.values.get(cell);
   const [text, setText] = useState(typeof stored === 'string' ? stored : '');
   const saved = useRef(text);
@@ -114,14 +146,18 @@ function CommentField({ cell, label, sheet, disabled }: { cell: string; label: s
       sheet.set(cell, value);
     }
   };
-  useEffect(() => () => {
-    if (timer.current) clearTimeout(timer.current);
-  }, []);
+  useEffect(
+    () => () => {
+      if (timer.current) clearTimeout(timer.current);
+    },
+    [],
+  );
   return (
     <label className="sm-desk-comment">
       <span>{label}</span>
       <textarea
         data-desk-stop=""
+        data-cell={cell}
         rows={2}
         value={text}
         disabled={disabled}
@@ -153,9 +189,15 @@ export function WriteUpPhase({ desk, sheet }: { desk: DeskView; sheet: SheetStat
     <div className="sm-desk-writeup">
       {desk.requests.map((r) => {
         const asked = sheet.values.get(cellName.asked(r.index)) !== false;
-        const flags = QUICK_FLAGS.map((f) => [f, sheet.values.get(cellName.flag(r.index, f))] as const).filter(([, v]) => typeof v === 'number' && v > 0);
+        const flags = QUICK_FLAGS.map(
+          (f) => [f, sheet.values.get(cellName.flag(r.index, f))] as const,
+        ).filter(([, v]) => typeof v === 'number' && v > 0);
         return (
-          <section key={r.index} className={`sm-desk-card${asked ? '' : ' sm-desk-card--not-asked'}`} aria-labelledby={`req-${r.index}`}>
+          <section
+            key={r.index}
+            className={`sm-desk-card${asked ? '' : ' sm-desk-card--not-asked'}`}
+            aria-labelledby={`req-${r.index}`}
+          >
             <header className="sm-desk-card__head">
               <div>
                 <h3 id={`req-${r.index}`}>
@@ -163,11 +205,18 @@ export function WriteUpPhase({ desk, sheet }: { desk: DeskView; sheet: SheetStat
                 </h3>
                 <p className="sm-muted">
                   {requestDetails(r).join(' · ')} · {tempoText(r, desk.noteNames)}
-                  {flags.length > 0 && ` · flags: ${flags.map(([f, v]) => `${QUICK_FLAG_LABELS[f].toLowerCase()} ×${String(v)}`).join(', ')}`}
+                  {flags.length > 0 &&
+                    ` · flags: ${flags.map(([f, v]) => `${QUICK_FLAG_LABELS[f].toLowerCase()} ×${String(v)}`).join(', ')}`}
                 </p>
               </div>
               <label className="sm-desk-notasked">
-                <input type="checkbox" checked={!asked} disabled={ro} onChange={(e) => sheet.set(cellName.asked(r.index), !e.target.checked)} /> Not asked
+                <input
+                  type="checkbox"
+                  checked={!asked}
+                  disabled={ro}
+                  onChange={(e) => sheet.set(cellName.asked(r.index), !e.target.checked)}
+                />{' '}
+                Not asked
               </label>
             </header>
             {asked && (
@@ -175,7 +224,12 @@ export function WriteUpPhase({ desk, sheet }: { desk: DeskView; sheet: SheetStat
                 {r.criteria.map((c) => (
                   <MarkRow key={c.key} request={r} criterion={c} sheet={sheet} disabled={ro} />
                 ))}
-                <CommentField cell={cellName.comment(r.index)} label={`Comment on request ${r.index + 1}`} sheet={sheet} disabled={ro} />
+                <CommentField
+                  cell={cellName.comment(r.index)}
+                  label={`Comment on request ${r.index + 1}`}
+                  sheet={sheet}
+                  disabled={ro}
+                />
               </>
             )}
           </section>
@@ -183,12 +237,25 @@ export function WriteUpPhase({ desk, sheet }: { desk: DeskView; sheet: SheetStat
       })}
       <section className="sm-desk-card" aria-labelledby="overall">
         <h3 id="overall">Overall</h3>
-        <CommentField cell={cellName.comment('overall')} label="Overall comment" sheet={sheet} disabled={ro} />
+        <CommentField
+          cell={cellName.comment('overall')}
+          label="Overall comment"
+          sheet={sheet}
+          disabled={ro}
+        />
         <fieldset className="sm-desk-outcome">
           <legend>The slot’s outcome</legend>
           {SLOT_OUTCOMES.map((o) => (
             <label key={o}>
-              <input type="radio" name="outcome" value={o} checked={outcome === o} disabled={ro} onChange={() => sheet.set(cellName.outcome(), o)} /> {OUTCOME_LABEL[o]}
+              <input
+                type="radio"
+                name="outcome"
+                value={o}
+                checked={outcome === o}
+                disabled={ro}
+                onChange={() => sheet.set(cellName.outcome(), o)}
+              />{' '}
+              {OUTCOME_LABEL[o]}
             </label>
           ))}
         </fieldset>

@@ -1,4 +1,9 @@
-import { formatMetronomeMark, keyLabel, type NoteNameConvention, type Request } from '@stavemark/shared';
+import {
+  formatMetronomeMark,
+  keyLabel,
+  type NoteNameConvention,
+  type Request,
+} from '@stavemark/shared';
 
 const KIND: Record<Request['kind'], string> = {
   scale: 'Scale',
@@ -10,7 +15,11 @@ const KIND: Record<Request['kind'], string> = {
   passage: 'Passage',
   other: 'Piece',
 };
-const HANDS: Record<Request['hands'], string> = { RH: 'right hand', LH: 'left hand', HT: 'hands together' };
+const HANDS: Record<Request['hands'], string> = {
+  RH: 'right hand',
+  LH: 'left hand',
+  HT: 'hands together',
+};
 const MOTION: Record<NonNullable<Request['motion']>, string> = {
   similar: 'similar motion',
   contrary: 'contrary motion',

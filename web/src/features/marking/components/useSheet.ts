@@ -8,7 +8,10 @@ import { queueKey, SaveQueue, type CellConflict } from '../api/save-queue';
  * on top. Every change goes into the persistent queue first, then to the server.
  */
 export function useSheet(sheet: MarkSheetView, personId: string) {
-  const queue = useMemo(() => new SaveQueue(queueKey(personId, sheet.id), saveCellTo(sheet.id)), [personId, sheet.id]);
+  const queue = useMemo(
+    () => new SaveQueue(queueKey(personId, sheet.id), saveCellTo(sheet.id)),
+    [personId, sheet.id],
+  );
   const [values, setValues] = useState<Map<string, CellValue>>(() => {
     const m = new Map<string, CellValue>(sheet.cells.map((c) => [c.cell, c.value]));
     for (const [cell, value] of queue.pendingValues()) m.set(cell, value);
