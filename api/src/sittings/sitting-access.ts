@@ -68,7 +68,7 @@ export function canRecordOutcome(a: SittingAccess, slot: Slot): boolean {
 }
 
 /** The next status this caller may move the sitting to, if any. */
-export function nextStatusFor(a: SittingAccess, status: SittingStatus): SittingStatus[] {
+export function nextStatusFor(a: SittingAccess, status: SittingStatus): Exclude<SittingStatus, 'draft'>[] {
   switch (status) {
     case 'draft':
       return a.editor ? ['scheduled'] : [];

@@ -88,7 +88,7 @@ export interface ViewOptions {
   canSeeSlot: (s: Slot) => boolean;
   canSeeArrangement: (s: Slot) => boolean;
   studentOnly: boolean;
-  nextStatuses: SittingStatus[];
+  nextStatuses: Exclude<SittingStatus, 'draft'>[];
   recordOutcomes: boolean;
   ownPupils?: Map<string, Map<string, string>> | undefined;
 }

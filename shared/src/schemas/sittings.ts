@@ -339,7 +339,8 @@ export interface SlotView extends SlotTimes {
 export interface SittingPermissions {
   edit: boolean;
   recordOutcomes: boolean;
-  changeStatus: SittingStatus[];
+  /** The steps the caller may take next (never back to draft). */
+  changeStatus: Exclude<SittingStatus, 'draft'>[];
 }
 
 export interface SittingSummary {

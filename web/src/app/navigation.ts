@@ -14,6 +14,7 @@ export const navItems: readonly NavItem[] = [
   { to: paths.today.href(), label: 'Today', roles: paths.today.roles, end: true },
   { to: paths.people.href(), label: 'People', roles: paths.people.roles },
   { to: paths.classes.href(), label: 'Classes', roles: paths.classes.roles },
+  { to: paths.sittings.href(), label: 'Sittings', roles: paths.sittings.roles },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },
   { to: paths.marking.href(), label: 'Marking', roles: paths.marking.roles },
 ];

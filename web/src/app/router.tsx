@@ -96,6 +96,19 @@ export const routes: RouteObject[] = [
           lazy: async () => ({ element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth> }),
         }),
       ),
+      // Sittings: each page its own chunk, guarded by the roles in paths.
+      ...(
+        [
+          [paths.sittings, () => import('@/features/sittings/pages/SittingsPage').then((m) => <m.SittingsPage />)],
+          [paths.sitting, () => import('@/features/sittings/pages/SittingPage').then((m) => <m.SittingPage />)],
+          [paths.daySchedule, () => import('@/features/sittings/pages/DaySchedulePage').then((m) => <m.DaySchedulePage />)],
+        ] as const
+      ).map(
+        ([route, load]): RouteObject => ({
+          path: route.path,
+          lazy: async () => ({ element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth> }),
+        }),
+      ),
       { path: '*', element: <NotFoundPage /> },
     ],
   },

@@ -28,6 +28,18 @@ export const paths = {
     href: (slotId: string) => `/marking/slots/${encodeURIComponent(slotId)}`,
     roles: ['examiner'],
   },
+  // Sittings (issue 5): everyone sees theirs (a student their own slot); the day schedule is for staff and examiners.
+  sittings: { path: '/sittings', href: () => '/sittings', roles: ROLES },
+  sitting: {
+    path: '/sittings/:sittingId',
+    href: (sittingId: string) => `/sittings/${encodeURIComponent(sittingId)}`,
+    roles: ROLES,
+  },
+  daySchedule: {
+    path: '/schedule',
+    href: (date?: string) => `/schedule${date ? `?date=${encodeURIComponent(date)}` : ''}`,
+    roles: ['admin', 'teacher', 'examiner'],
+  },
 } as const satisfies Record<
   string,
   { path: string; href: (...args: never[]) => string; roles: readonly Role[] }

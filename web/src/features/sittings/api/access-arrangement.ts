@@ -5,20 +5,42 @@ import { sittingsKey } from './keys';
 
 const arrangementKey = (studentId: string) => [...sittingsKey, 'arrangement', studentId] as const;
 
-export function getArrangement(studentId: string, signal?: AbortSignal): Promise<AccessArrangementView> {
-  return apiRequest<AccessArrangementView>(`/students/${encodeURIComponent(studentId)}/access-arrangement`, { signal });
+export function getArrangement(
+  studentId: string,
+  signal?: AbortSignal,
+): Promise<AccessArrangementView> {
+  return apiRequest<AccessArrangementView>(
+    `/students/${encodeURIComponent(studentId)}/access-arrangement`,
+    { signal },
+  );
 }
 export const arrangementQueryOptions = (studentId: string) =>
-  queryOptions({ queryKey: arrangementKey(studentId), queryFn: ({ signal }) => getArrangement(studentId, signal) });
+  queryOptions({
+    queryKey: arrangementKey(studentId),
+    queryFn: ({ signal }) => getArrangement(studentId, signal),
+  });
 export function useArrangement(studentId: string | null) {
   return useQuery({ ...arrangementQueryOptions(studentId ?? ''), enabled: studentId !== null });
 }
 
-export function putArrangement({ studentId, input }: { studentId: string; input: AccessArrangementInput }): Promise<AccessArrangementView> {
-  return apiRequest<AccessArrangementView>(`/students/${encodeURIComponent(studentId)}/access-arrangement`, { method: 'PUT', body: input });
+export function putArrangement({
+  studentId,
+  input,
+}: {
+  studentId: string;
+  input: AccessArrangementInput;
+}): Promise<AccessArrangementView> {
+  return apiRequest<AccessArrangementView>(
+    `/students/${encodeURIComponent(studentId)}/access-arrangement`,
+    { method: 'PUT', body: input },
+  );
 }
 export function usePutArrangement() {
   const queryClient = useQueryClient();
   // Slot lengths change with the arrangement: every sitting view is refreshed.
-  return useMutation({ mutationFn: putArrangement, meta: { inlineErrors: true }, onSuccess: () => queryClient.invalidateQueries({ queryKey: sittingsKey }) });
+  return useMutation({
+    mutationFn: putArrangement,
+    meta: { inlineErrors: true },
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: sittingsKey }),
+  });
 }

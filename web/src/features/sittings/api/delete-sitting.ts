@@ -8,5 +8,8 @@ export function deleteSitting(id: string): Promise<void> {
 
 export function useDeleteSitting() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: deleteSitting, onSuccess: () => queryClient.invalidateQueries({ queryKey: sittingsKey }) });
+  return useMutation({
+    mutationFn: deleteSitting,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: sittingsKey }),
+  });
 }

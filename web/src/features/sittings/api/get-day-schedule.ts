@@ -8,7 +8,10 @@ export function getDaySchedule(date: string, signal?: AbortSignal): Promise<DayS
 }
 
 export const dayScheduleQueryOptions = (date: string) =>
-  queryOptions({ queryKey: [...sittingsKey, 'day', date], queryFn: ({ signal }) => getDaySchedule(date, signal) });
+  queryOptions({
+    queryKey: [...sittingsKey, 'day', date],
+    queryFn: ({ signal }) => getDaySchedule(date, signal),
+  });
 
 export function useDaySchedule(date: string) {
   return useQuery(dayScheduleQueryOptions(date));

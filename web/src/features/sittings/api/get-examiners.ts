@@ -7,7 +7,12 @@ export function getExaminers(signal?: AbortSignal): Promise<ExaminerOption[]> {
   return apiRequest<ExaminerOption[]>('/examiners', { signal });
 }
 
-export const examinersQueryOptions = () => queryOptions({ queryKey: [...sittingsKey, 'examiners'], queryFn: ({ signal }) => getExaminers(signal), staleTime: 5 * 60_000 });
+export const examinersQueryOptions = () =>
+  queryOptions({
+    queryKey: [...sittingsKey, 'examiners'],
+    queryFn: ({ signal }) => getExaminers(signal),
+    staleTime: 5 * 60_000,
+  });
 
 export function useExaminers(enabled = true) {
   return useQuery({ ...examinersQueryOptions(), enabled });

@@ -7,10 +7,16 @@ import { sittingsKey } from './keys';
 // through the API here rather than from the other features' internals.
 
 export function getPublishedLists(signal?: AbortSignal): Promise<RequirementListSummary[]> {
-  return apiRequest<RequirementListSummary[]>('/requirement-lists', { signal, query: { status: 'published' } });
+  return apiRequest<RequirementListSummary[]>('/requirement-lists', {
+    signal,
+    query: { status: 'published' },
+  });
 }
 export const publishedListsQueryOptions = () =>
-  queryOptions({ queryKey: [...sittingsKey, 'options', 'lists'], queryFn: ({ signal }) => getPublishedLists(signal) });
+  queryOptions({
+    queryKey: [...sittingsKey, 'options', 'lists'],
+    queryFn: ({ signal }) => getPublishedLists(signal),
+  });
 export function usePublishedLists(enabled = true) {
   return useQuery({ ...publishedListsQueryOptions(), enabled });
 }
@@ -19,7 +25,10 @@ export function getClassOptions(signal?: AbortSignal): Promise<ClassRow[]> {
   return apiRequest<ClassRow[]>('/classes', { signal });
 }
 export const classOptionsQueryOptions = () =>
-  queryOptions({ queryKey: [...sittingsKey, 'options', 'classes'], queryFn: ({ signal }) => getClassOptions(signal) });
+  queryOptions({
+    queryKey: [...sittingsKey, 'options', 'classes'],
+    queryFn: ({ signal }) => getClassOptions(signal),
+  });
 export function useClassOptions(enabled = true) {
   return useQuery({ ...classOptionsQueryOptions(), enabled });
 }

@@ -7,7 +7,8 @@ export function getSitting(id: string, signal?: AbortSignal): Promise<SittingVie
   return apiRequest<SittingView>(`/sittings/${encodeURIComponent(id)}`, { signal });
 }
 
-export const sittingQueryOptions = (id: string) => queryOptions({ queryKey: sittingKey(id), queryFn: ({ signal }) => getSitting(id, signal) });
+export const sittingQueryOptions = (id: string) =>
+  queryOptions({ queryKey: sittingKey(id), queryFn: ({ signal }) => getSitting(id, signal) });
 
 export function useSitting(id: string) {
   return useQuery(sittingQueryOptions(id));

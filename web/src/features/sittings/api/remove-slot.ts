@@ -9,5 +9,9 @@ export function removeSlot(id: string): Promise<SittingView> {
 
 export function useRemoveSlot() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: removeSlot, meta: { inlineErrors: true }, onSuccess: () => queryClient.invalidateQueries({ queryKey: sittingsKey }) });
+  return useMutation({
+    mutationFn: removeSlot,
+    meta: { inlineErrors: true },
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: sittingsKey }),
+  });
 }

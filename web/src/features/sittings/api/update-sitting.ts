@@ -3,8 +3,17 @@ import type { SittingView, UpdateSittingInput } from '@stavemark/shared';
 import { apiRequest } from '@/lib/api-client';
 import { sittingsKey } from './keys';
 
-export function updateSitting({ id, changes }: { id: string; changes: UpdateSittingInput }): Promise<SittingView> {
-  return apiRequest<SittingView>(`/sittings/${encodeURIComponent(id)}`, { method: 'PATCH', body: changes });
+export function updateSitting({
+  id,
+  changes,
+}: {
+  id: string;
+  changes: UpdateSittingInput;
+}): Promise<SittingView> {
+  return apiRequest<SittingView>(`/sittings/${encodeURIComponent(id)}`, {
+    method: 'PATCH',
+    body: changes,
+  });
 }
 
 export function useUpdateSitting() {

@@ -8,7 +8,10 @@ export const STATUS_LABEL: Record<SittingStatus, string> = {
   published: 'Published',
 };
 
-export const STATUS_SEVERITY: Record<SittingStatus, 'info' | 'success' | 'warning' | 'secondary' | undefined> = {
+export const STATUS_SEVERITY: Record<
+  SittingStatus,
+  'info' | 'success' | 'warning' | 'secondary' | undefined
+> = {
   draft: 'secondary',
   scheduled: 'info',
   in_progress: 'warning',

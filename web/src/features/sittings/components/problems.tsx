@@ -21,7 +21,8 @@ interface OwnPupilDetails {
 function detailsOf(error: unknown): ConflictDetails | OwnPupilDetails | null {
   if (!(error instanceof ApiError) || error.status !== 409) return null;
   const d = error.body.details as { kind?: string } | undefined;
-  if (d && !Array.isArray(d) && (d.kind === 'conflicts' || d.kind === 'own_pupil')) return d as ConflictDetails | OwnPupilDetails;
+  if (d && !Array.isArray(d) && (d.kind === 'conflicts' || d.kind === 'own_pupil'))
+    return d as ConflictDetails | OwnPupilDetails;
   return null;
 }
 
@@ -33,7 +34,13 @@ export function ownPupilWarnings(error: unknown): string[] | null {
 export function problemOf(error: unknown): PlanProblem {
   const d = detailsOf(error);
   if (d?.kind === 'conflicts') {
-    return { message: d.conflicts.length > 1 ? `${d.conflicts.length} conflicts: nothing was changed.` : 'Conflict: nothing was changed.', items: d.conflicts.map((c) => c.message) };
+    return {
+      message:
+        d.conflicts.length > 1
+          ? `${d.conflicts.length} conflicts: nothing was changed.`
+          : 'Conflict: nothing was changed.',
+      items: d.conflicts.map((c) => c.message),
+    };
   }
   if (error instanceof ApiError) {
     const fields = error.fieldErrors.map((f) => `${f.path}: ${f.message}`);
@@ -65,39 +72,48 @@ export function PlanProblemAlert({ problem }: { problem: PlanProblem | null }) {
  */
 export function useAcknowledgingRun() {
   const [problem, setProblem] = useState<PlanProblem | null>(null);
-  const run = useCallback(async <T,>(change: (acknowledgeOwnPupil: boolean) => Promise<T>, onDone?: (result: T) => void): Promise<void> => {
-    setProblem(null);
-    const attempt = async (ack: boolean) => {
-      try {
-        const result = await change(ack);
-        onDone?.(result);
-      } catch (error) {
-        const warnings = ack ? null : ownPupilWarnings(error);
-        if (warnings) {
-          confirmDialog({
-            header: 'An examiner would mark their own pupil',
-            message: (
-              <div>
-                <ul className="sm-problem-list">
-                  {warnings.map((w) => (
-                    <li key={w}>{w}</li>
-                  ))}
-                </ul>
-                <p>Go ahead only if no other examiner can mark them. Your acknowledgement is recorded.</p>
-              </div>
-            ),
-            acceptLabel: 'Acknowledge and go ahead',
-            rejectLabel: 'Cancel',
-            rejectClassName: 'p-button-secondary',
-            defaultFocus: 'reject',
-            accept: () => void attempt(true),
-          });
-        } else {
-          setProblem(problemOf(error));
+  const run = useCallback(
+    async <T,>(
+      change: (acknowledgeOwnPupil: boolean) => Promise<T>,
+      onDone?: (result: T) => void,
+    ): Promise<void> => {
+      setProblem(null);
+      const attempt = async (ack: boolean) => {
+        try {
+          const result = await change(ack);
+          onDone?.(result);
+        } catch (error) {
+          const warnings = ack ? null : ownPupilWarnings(error);
+          if (warnings) {
+            confirmDialog({
+              header: 'An examiner would mark their own pupil',
+              message: (
+                <div>
+                  <ul className="sm-problem-list">
+                    {warnings.map((w) => (
+                      <li key={w}>{w}</li>
+                    ))}
+                  </ul>
+                  <p>
+                    Go ahead only if no other examiner can mark them. Your acknowledgement is
+                    recorded.
+                  </p>
+                </div>
+              ),
+              acceptLabel: 'Acknowledge and go ahead',
+              rejectLabel: 'Cancel',
+              rejectClassName: 'p-button-secondary',
+              defaultFocus: 'reject',
+              accept: () => void attempt(true),
+            });
+          } else {
+            setProblem(problemOf(error));
+          }
         }
-      }
-    };
-    await attempt(false);
-  }, []);
+      };
+      await attempt(false);
+    },
+    [],
+  );
   return { problem, setProblem, run };
 }
