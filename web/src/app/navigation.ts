@@ -13,6 +13,12 @@ export interface NavItem {
 export const navItems: readonly NavItem[] = [
   { to: paths.today.href(), label: 'Today', roles: paths.today.roles, end: true },
   { to: paths.people.href(), label: 'People', roles: paths.people.roles },
+  { to: paths.rubrics.href(), label: 'Rubrics', roles: ['admin', 'teacher', 'examiner'] },
+  {
+    to: paths.requirementLists.href(),
+    label: 'Requirement lists',
+    roles: ['admin', 'teacher', 'examiner'],
+  },
   { to: paths.classes.href(), label: 'Classes', roles: paths.classes.roles },
   { to: paths.sittings.href(), label: 'Sittings', roles: paths.sittings.roles },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },

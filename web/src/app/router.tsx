@@ -109,6 +109,105 @@ export const routes: RouteObject[] = [
           lazy: async () => ({ element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth> }),
         }),
       ),
+      // Rubrics and requirement lists: each page its own chunk, guarded by the roles in paths.
+      ...(
+        [
+          [
+            paths.rubrics,
+            () => import('@/features/rubrics/pages/RubricsPage').then((m) => <m.RubricsPage />),
+          ],
+          [
+            paths.rubricNew,
+            () =>
+              import('@/features/rubrics/pages/RubricEditorPage').then((m) => <m.NewRubricPage />),
+          ],
+          [
+            paths.rubric,
+            () => import('@/features/rubrics/pages/RubricPage').then((m) => <m.RubricPage />),
+          ],
+          [
+            paths.rubricEdit,
+            () =>
+              import('@/features/rubrics/pages/RubricEditorPage').then((m) => <m.EditRubricPage />),
+          ],
+          [
+            paths.requirementLists,
+            () =>
+              import('@/features/requirement-lists/pages/RequirementListsPage').then((m) => (
+                <m.RequirementListsPage />
+              )),
+          ],
+          [
+            paths.requirementListNew,
+            () =>
+              import('@/features/requirement-lists/pages/RequirementListEditorPage').then((m) => (
+                <m.NewRequirementListPage />
+              )),
+          ],
+          [
+            paths.requirementList,
+            () =>
+              import('@/features/requirement-lists/pages/RequirementListPage').then((m) => (
+                <m.RequirementListPage />
+              )),
+          ],
+          [
+            paths.requirementListEdit,
+            () =>
+              import('@/features/requirement-lists/pages/RequirementListEditorPage').then((m) => (
+                <m.EditRequirementListPage />
+              )),
+          ],
+        ] as const
+      ).map(([route, load]): RouteObject => ({
+        path: route.path,
+        lazy: async () => ({
+          element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
+        }),
+      })),
+      // The marking desk: its own chunks (no chart library), examiners only.
+      ...(
+        [
+          [
+            paths.marking,
+            () => import('@/features/marking/pages/MarkingPage').then((m) => <m.MarkingPage />),
+          ],
+          [
+            paths.markingDesk,
+            () => import('@/features/marking/pages/DeskPage').then((m) => <m.DeskPage />),
+          ],
+        ] as const
+      ).map(([route, load]): RouteObject => ({
+        path: route.path,
+        lazy: async () => ({
+          element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
+        }),
+      })),
+      // Sittings: each page its own chunk, guarded by the roles in paths.
+      ...(
+        [
+          [
+            paths.sittings,
+            () => import('@/features/sittings/pages/SittingsPage').then((m) => <m.SittingsPage />),
+          ],
+          [
+            paths.sitting,
+            () => import('@/features/sittings/pages/SittingPage').then((m) => <m.SittingPage />),
+          ],
+          [
+            paths.daySchedule,
+            () =>
+              import('@/features/sittings/pages/DaySchedulePage').then((m) => (
+                <m.DaySchedulePage />
+              )),
+          ],
+        ] as const
+      ).map(([route, load]): RouteObject => ({
+        path: route.path,
+        lazy: async () => ({
+          element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
+        }),
+      })),
       { path: '*', element: <NotFoundPage /> },
     ],
   },

@@ -8,7 +8,37 @@ export const paths = {
   today: { path: '/', href: () => '/', roles: ROLES },
   signIn: { path: '/sign-in', href: () => '/sign-in', roles: ROLES },
   people: { path: '/people', href: () => '/people', roles: ['admin'] },
-  // Classes (issue 4): a teacher's own, all for an admin; the Outbox outside production.
+  // Rubrics and requirement lists: teachers and admins edit, examiners and students read.
+  rubrics: { path: '/rubrics', href: () => '/rubrics', roles: ROLES },
+  rubricNew: { path: '/rubrics/new', href: () => '/rubrics/new', roles: ['admin', 'teacher'] },
+  rubric: {
+    path: '/rubrics/:rubricId',
+    href: (rubricId: string, version?: number) =>
+      `/rubrics/${encodeURIComponent(rubricId)}${version ? `?version=${version}` : ''}`,
+    roles: ROLES,
+  },
+  rubricEdit: {
+    path: '/rubrics/:rubricId/edit',
+    href: (rubricId: string) => `/rubrics/${encodeURIComponent(rubricId)}/edit`,
+    roles: ['admin', 'teacher'],
+  },
+  requirementLists: { path: '/requirement-lists', href: () => '/requirement-lists', roles: ROLES },
+  requirementListNew: {
+    path: '/requirement-lists/new',
+    href: () => '/requirement-lists/new',
+    roles: ['admin', 'teacher'],
+  },
+  requirementList: {
+    path: '/requirement-lists/:listId',
+    href: (listId: string, version?: number) =>
+      `/requirement-lists/${encodeURIComponent(listId)}${version ? `?version=${version}` : ''}`,
+    roles: ROLES,
+  },
+  requirementListEdit: {
+    path: '/requirement-lists/:listId/edit',
+    href: (listId: string) => `/requirement-lists/${encodeURIComponent(listId)}/edit`,
+    roles: ['admin', 'teacher'],
+  },  // Classes (issue 4): a teacher's own, all for an admin; the Outbox outside production.
   classes: { path: '/classes', href: () => '/classes', roles: ['admin', 'teacher'] },
   classDetail: {
     path: '/classes/:classId',

@@ -4,8 +4,17 @@ import { apiRequest } from '@/lib/api-client';
 import { requirementListsKey } from './get-requirement-lists';
 
 /** An edit of a published list: saved as a new draft version. */
-export function createRequirementListVersion({ listId, body }: { listId: string; body: RequirementListVersionBody }): Promise<RequirementListVersionView> {
-  return apiRequest<RequirementListVersionView>(`/requirement-lists/${encodeURIComponent(listId)}/versions`, { method: 'POST', body });
+export function createRequirementListVersion({
+  listId,
+  body,
+}: {
+  listId: string;
+  body: RequirementListVersionBody;
+}): Promise<RequirementListVersionView> {
+  return apiRequest<RequirementListVersionView>(
+    `/requirement-lists/${encodeURIComponent(listId)}/versions`,
+    { method: 'POST', body },
+  );
 }
 
 export function useCreateRequirementListVersion() {

@@ -3,7 +3,9 @@ import type { RequirementListVersionBody, RequirementListVersionView } from '@st
 import { apiRequest } from '@/lib/api-client';
 import { requirementListsKey } from './get-requirement-lists';
 
-export function createRequirementList(body: RequirementListVersionBody): Promise<RequirementListVersionView> {
+export function createRequirementList(
+  body: RequirementListVersionBody,
+): Promise<RequirementListVersionView> {
   return apiRequest<RequirementListVersionView>('/requirement-lists', { method: 'POST', body });
 }
 

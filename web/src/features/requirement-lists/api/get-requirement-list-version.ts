@@ -3,8 +3,14 @@ import type { RequirementListVersionView } from '@stavemark/shared';
 import { apiRequest } from '@/lib/api-client';
 import { requirementListsKey } from './get-requirement-lists';
 
-export function getRequirementListVersion(id: string, signal?: AbortSignal): Promise<RequirementListVersionView> {
-  return apiRequest<RequirementListVersionView>(`/requirement-list-versions/${encodeURIComponent(id)}`, { signal });
+export function getRequirementListVersion(
+  id: string,
+  signal?: AbortSignal,
+): Promise<RequirementListVersionView> {
+  return apiRequest<RequirementListVersionView>(
+    `/requirement-list-versions/${encodeURIComponent(id)}`,
+    { signal },
+  );
 }
 
 export const requirementListVersionQueryOptions = (id: string) =>

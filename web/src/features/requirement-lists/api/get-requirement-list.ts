@@ -3,8 +3,13 @@ import type { RequirementListDetail } from '@stavemark/shared';
 import { apiRequest } from '@/lib/api-client';
 import { requirementListsKey } from './get-requirement-lists';
 
-export function getRequirementList(id: string, signal?: AbortSignal): Promise<RequirementListDetail> {
-  return apiRequest<RequirementListDetail>(`/requirement-lists/${encodeURIComponent(id)}`, { signal });
+export function getRequirementList(
+  id: string,
+  signal?: AbortSignal,
+): Promise<RequirementListDetail> {
+  return apiRequest<RequirementListDetail>(`/requirement-lists/${encodeURIComponent(id)}`, {
+    signal,
+  });
 }
 
 export const requirementListQueryOptions = (id: string) =>

@@ -4,8 +4,14 @@ import { apiRequest } from '@/lib/api-client';
 
 export const requirementListsKey = ['requirement-lists'] as const;
 
-export function getRequirementLists(query: ListRequirementListsQuery, signal?: AbortSignal): Promise<RequirementListSummary[]> {
-  return apiRequest<RequirementListSummary[]>('/requirement-lists', { signal, query: { grade: query.grade, status: query.status } });
+export function getRequirementLists(
+  query: ListRequirementListsQuery,
+  signal?: AbortSignal,
+): Promise<RequirementListSummary[]> {
+  return apiRequest<RequirementListSummary[]>('/requirement-lists', {
+    signal,
+    query: { grade: query.grade, status: query.status },
+  });
 }
 
 export const requirementListsQueryOptions = (query: ListRequirementListsQuery = {}) =>

@@ -11,8 +11,18 @@ export function getRubricOptions(signal?: AbortSignal): Promise<RubricOption[]> 
   return apiRequest<RubricSummary[]>('/rubrics', { signal }).then((rubrics) =>
     rubrics.flatMap((r) => {
       const out: RubricOption[] = [];
-      if (r.published) out.push({ value: r.published.id, label: `${r.published.name} · version ${r.published.version}`, kinds: r.published.kinds });
-      if (r.latest.status === 'draft') out.push({ value: r.latest.id, label: `${r.latest.name} · version ${r.latest.version} (draft)`, kinds: r.latest.kinds });
+      if (r.published)
+        out.push({
+          value: r.published.id,
+          label: `${r.published.name} · version ${r.published.version}`,
+          kinds: r.published.kinds,
+        });
+      if (r.latest.status === 'draft')
+        out.push({
+          value: r.latest.id,
+          label: `${r.latest.name} · version ${r.latest.version} (draft)`,
+          kinds: r.latest.kinds,
+        });
       return out;
     }),
   );

@@ -4,7 +4,10 @@ import { apiRequest } from '@/lib/api-client';
 import { requirementListsKey } from './get-requirement-lists';
 
 export function publishRequirementListVersion(id: string): Promise<RequirementListVersionView> {
-  return apiRequest<RequirementListVersionView>(`/requirement-list-versions/${encodeURIComponent(id)}/publish`, { method: 'POST' });
+  return apiRequest<RequirementListVersionView>(
+    `/requirement-list-versions/${encodeURIComponent(id)}/publish`,
+    { method: 'POST' },
+  );
 }
 
 export function usePublishRequirementListVersion() {

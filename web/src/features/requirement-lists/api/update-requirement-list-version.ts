@@ -3,8 +3,17 @@ import type { RequirementListVersionBody, RequirementListVersionView } from '@st
 import { apiRequest } from '@/lib/api-client';
 import { requirementListsKey } from './get-requirement-lists';
 
-export function updateRequirementListVersion({ id, body }: { id: string; body: RequirementListVersionBody }): Promise<RequirementListVersionView> {
-  return apiRequest<RequirementListVersionView>(`/requirement-list-versions/${encodeURIComponent(id)}`, { method: 'PUT', body });
+export function updateRequirementListVersion({
+  id,
+  body,
+}: {
+  id: string;
+  body: RequirementListVersionBody;
+}): Promise<RequirementListVersionView> {
+  return apiRequest<RequirementListVersionView>(
+    `/requirement-list-versions/${encodeURIComponent(id)}`,
+    { method: 'PUT', body },
+  );
 }
 
 export function useUpdateRequirementListVersion() {

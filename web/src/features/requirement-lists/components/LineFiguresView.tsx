@@ -25,7 +25,11 @@ export function LineFiguresView({ figures, label }: { figures: LineFigures; labe
         <tbody>
           {figures.spans.map((s) => (
             <tr key={`${s.octaves}-${s.direction}`}>
-              <td>{s.notes === null ? 'Stated playing time' : `${octavesLabel(s.octaves)}, ${DIRECTION_LABELS[s.direction as Direction]}`}</td>
+              <td>
+                {s.notes === null
+                  ? 'Stated playing time'
+                  : `${octavesLabel(s.octaves)}, ${DIRECTION_LABELS[s.direction as Direction]}`}
+              </td>
               <td className="sm-num">{s.notes ?? '—'}</td>
               <td className="sm-num">{s.notes === null || nps === null ? '—' : nps.toFixed(2)}</td>
               <td className="sm-num">{formatSeconds(s.seconds)}</td>

@@ -1,5 +1,15 @@
 import { useId, useState, type ReactNode } from 'react';
-import { Controller, useFieldArray, useForm, useWatch, type Control, type FieldErrors, type Path, type UseFormRegister, type UseFormSetValue } from 'react-hook-form';
+import {
+  Controller,
+  useFieldArray,
+  useForm,
+  useWatch,
+  type Control,
+  type FieldErrors,
+  type Path,
+  type UseFormRegister,
+  type UseFormSetValue,
+} from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Button } from 'primereact/button';
 import { Checkbox } from 'primereact/checkbox';
@@ -61,7 +71,9 @@ export interface RubricOption {
 }
 
 /** Key and note names in circle-of-fifths order, from the music-theory library, each once. */
-const KEY_OPTIONS = [...new Set([...allowedKeys('major'), ...allowedKeys('natural_minor')])].map((k) => ({ label: displayNoteName(k), value: k }));
+const KEY_OPTIONS = [...new Set([...allowedKeys('major'), ...allowedKeys('natural_minor')])].map(
+  (k) => ({ label: displayNoteName(k), value: k }),
+);
 const OCTAVE_CHOICES = Array.from({ length: MAX_OCTAVES }, (_, i) => i + 1);
 
 export function blankLine(kind: RequestKind, rubricVersionId: string): LineFields {
@@ -97,7 +109,14 @@ function firstRubricFor(options: RubricOption[], kind: RequestKind): string {
   return options.find((o) => o.kinds.includes(kind))?.value ?? '';
 }
 
-export function RequirementListForm({ defaultValues, submitLabel, rubricOptions, convention, onSave, onCancel }: Props) {
+export function RequirementListForm({
+  defaultValues,
+  submitLabel,
+  rubricOptions,
+  convention,
+  onSave,
+  onCancel,
+}: Props) {
   const id = useId();
   const [formError, setFormError] = useState<string | null>(null);
   const {
@@ -107,26 +126,42 @@ export function RequirementListForm({ defaultValues, submitLabel, rubricOptions,
     setError,
     setValue,
     formState: { errors, isSubmitting },
-  } = useForm<ListFields, unknown, RequirementListVersionBody>({ resolver: zodResolver(requirementListVersionBodySchema), defaultValues, mode: 'onBlur' });
+  } = useForm<ListFields, unknown, RequirementListVersionBody>({
+    resolver: zodResolver(requirementListVersionBodySchema),
+    defaultValues,
+    mode: 'onBlur',
+  });
   const lines = useFieldArray({ control, name: 'lines' });
   const values = useWatch({ control }) as ListFields;
 
   // The live preview draws only from a list that passes the same checks the API makes.
   const parsed = requirementListVersionBodySchema.safeParse(values);
-  const previewLines: RequirementLine[] | null = parsed.success ? parsed.data.lines.map((l, i) => ({ ...l, id: l.id ?? `line-${i + 1}` })) : null;
-  const kindsInLines = [...new Set((values.lines ?? []).map((l) => l?.kind).filter((k): k is RequestKind => !!k))];
+  const previewLines: RequirementLine[] | null = parsed.success
+    ? parsed.data.lines.map((l, i) => ({ ...l, id: l.id ?? `line-${i + 1}` }))
+    : null;
+  const kindsInLines = [
+    ...new Set((values.lines ?? []).map((l) => l?.kind).filter((k): k is RequestKind => !!k)),
+  ];
   const minimums = (values.selectionRule?.minPerKind ?? {}) as Partial<Record<RequestKind, number>>;
-  const minimumKinds = REQUEST_KINDS.filter((k) => kindsInLines.includes(k) || (minimums[k] ?? 0) > 0);
+  const minimumKinds = REQUEST_KINDS.filter(
+    (k) => kindsInLines.includes(k) || (minimums[k] ?? 0) > 0,
+  );
 
   const submit = handleSubmit(async (body) => {
     setFormError(null);
     try {
       await onSave(body);
     } catch (err) {
-      if (!(err instanceof ApiError)) return setFormError('The server could not be reached. Nothing was saved; try again.');
+      if (!(err instanceof ApiError))
+        return setFormError('The server could not be reached. Nothing was saved; try again.');
       const details = err.fieldErrors.filter((d) => d.path !== '(body)');
-      for (const d of details) setError(d.path as Path<ListFields>, { type: 'server', message: d.message });
-      setFormError(err.status === 400 && details.length === err.fieldErrors.length && details.length > 0 ? 'Some fields need attention (marked below).' : err.message);
+      for (const d of details)
+        setError(d.path as Path<ListFields>, { type: 'server', message: d.message });
+      setFormError(
+        err.status === 400 && details.length === err.fieldErrors.length && details.length > 0
+          ? 'Some fields need attention (marked below).'
+          : err.message,
+      );
     }
   });
 
@@ -139,17 +174,34 @@ export function RequirementListForm({ defaultValues, submitLabel, rubricOptions,
         <div className="sm-grid-4">
           <div className="sm-field sm-span-2">
             <label htmlFor={`${id}-name`}>Name</label>
-            <InputText id={`${id}-name`} invalid={!!errors.name} aria-describedby={`${id}-name-error`} {...register('name')} />
+            <InputText
+              id={`${id}-name`}
+              invalid={!!errors.name}
+              aria-describedby={`${id}-name-error`}
+              {...register('name')}
+            />
             <FieldError id={`${id}-name-error`} message={errors.name?.message} />
           </div>
           <div className="sm-field">
             <label htmlFor={`${id}-grade`}>Grade</label>
-            <InputText id={`${id}-grade`} invalid={!!errors.grade} aria-describedby={`${id}-grade-error`} {...register('grade')} />
+            <InputText
+              id={`${id}-grade`}
+              invalid={!!errors.grade}
+              aria-describedby={`${id}-grade-error`}
+              {...register('grade')}
+            />
             <FieldError id={`${id}-grade-error`} message={errors.grade?.message} />
           </div>
           <div className="sm-field">
             <label htmlFor={`${id}-total`}>Total marks</label>
-            <InputText id={`${id}-total`} type="number" inputMode="numeric" invalid={!!errors.totalMarks} aria-describedby={`${id}-total-error`} {...register('totalMarks', { valueAsNumber: true })} />
+            <InputText
+              id={`${id}-total`}
+              type="number"
+              inputMode="numeric"
+              invalid={!!errors.totalMarks}
+              aria-describedby={`${id}-total-error`}
+              {...register('totalMarks', { valueAsNumber: true })}
+            />
             <FieldError id={`${id}-total-error`} message={errors.totalMarks?.message} />
           </div>
         </div>
@@ -169,10 +221,14 @@ export function RequirementListForm({ defaultValues, submitLabel, rubricOptions,
               <FieldError id={`${id}-count-error`} message={errors.selectionRule?.count?.message} />
             </div>
             {minimumKinds.map((k) => {
-              const e = (errors.selectionRule?.minPerKind as Record<string, { message?: string }> | undefined)?.[k];
+              const e = (
+                errors.selectionRule?.minPerKind as Record<string, { message?: string }> | undefined
+              )?.[k];
               return (
                 <div className="sm-field" key={k}>
-                  <label htmlFor={`${id}-min-${k}`}>At least, {KIND_LABELS[k].toLowerCase()}s</label>
+                  <label htmlFor={`${id}-min-${k}`}>
+                    At least, {KIND_LABELS[k].toLowerCase()}s
+                  </label>
                   <Controller
                     control={control}
                     name={`selectionRule.minPerKind.${k}` as Path<ListFields>}
@@ -184,7 +240,9 @@ export function RequirementListForm({ defaultValues, submitLabel, rubricOptions,
                         min={0}
                         invalid={!!e}
                         value={field.value === undefined ? '0' : String(field.value)}
-                        onChange={(ev) => field.onChange(ev.target.value === '' ? 0 : Number(ev.target.value))}
+                        onChange={(ev) =>
+                          field.onChange(ev.target.value === '' ? 0 : Number(ev.target.value))
+                        }
                         onBlur={field.onBlur}
                       />
                     )}
@@ -199,7 +257,9 @@ export function RequirementListForm({ defaultValues, submitLabel, rubricOptions,
       </div>
 
       <h2 className="sm-section-title">Lines</h2>
-      <p className="sm-muted">Each line is a template of what may be asked; the examiner’s requests are drawn from them.</p>
+      <p className="sm-muted">
+        Each line is a template of what may be asked; the examiner’s requests are drawn from them.
+      </p>
       {errors.lines?.message && <Alert severity="error">{errors.lines.message}</Alert>}
       <ol className="sm-lines">
         {lines.fields.map((f, index) => (
@@ -211,6 +271,7 @@ export function RequirementListForm({ defaultValues, submitLabel, rubricOptions,
             register={register}
             setValue={setValue}
             errors={errors}
+            line={values.lines?.[index] as LineFields | undefined}
             rubricOptions={rubricOptions}
             convention={convention}
             onRemove={() => lines.remove(index)}
@@ -219,16 +280,46 @@ export function RequirementListForm({ defaultValues, submitLabel, rubricOptions,
         ))}
       </ol>
       <span className="sm-row-actions sm-row-actions-start">
-        <Button type="button" icon="pi pi-plus" severity="secondary" label="Add a scale line" onClick={() => lines.append(blankLine('scale', firstRubricFor(rubricOptions, 'scale')))} />
-        <Button type="button" icon="pi pi-plus" severity="secondary" label="Add an arpeggio line" onClick={() => lines.append(blankLine('arpeggio', firstRubricFor(rubricOptions, 'arpeggio')))} />
-        <Button type="button" icon="pi pi-plus" severity="secondary" label="Add another line" onClick={() => lines.append(blankLine('broken_chord', firstRubricFor(rubricOptions, 'broken_chord')))} />
+        <Button
+          type="button"
+          icon="pi pi-plus"
+          severity="secondary"
+          label="Add a scale line"
+          onClick={() => lines.append(blankLine('scale', firstRubricFor(rubricOptions, 'scale')))}
+        />
+        <Button
+          type="button"
+          icon="pi pi-plus"
+          severity="secondary"
+          label="Add an arpeggio line"
+          onClick={() =>
+            lines.append(blankLine('arpeggio', firstRubricFor(rubricOptions, 'arpeggio')))
+          }
+        />
+        <Button
+          type="button"
+          icon="pi pi-plus"
+          severity="secondary"
+          label="Add another line"
+          onClick={() =>
+            lines.append(blankLine('broken_chord', firstRubricFor(rubricOptions, 'broken_chord')))
+          }
+        />
       </span>
 
-      <SampleDraws lines={previewLines} rule={parsed.success ? parsed.data.selectionRule : null} convention={convention} />
+      <SampleDraws
+        lines={previewLines}
+        rule={parsed.success ? parsed.data.selectionRule : null}
+        convention={convention}
+      />
 
       <div className="sm-form-actions">
         <Button type="button" label="Cancel" severity="secondary" onClick={onCancel} />
-        <Button type="submit" label={isSubmitting ? 'Saving…' : submitLabel} disabled={isSubmitting} />
+        <Button
+          type="submit"
+          label={isSubmitting ? 'Saving…' : submitLabel}
+          disabled={isSubmitting}
+        />
       </div>
     </form>
   );
@@ -241,6 +332,8 @@ interface LineProps {
   register: UseFormRegister<ListFields>;
   setValue: UseFormSetValue<ListFields>;
   errors: FieldErrors<ListFields>;
+  /** The line's current values, watched by the form (a nested watch would miss some changes). */
+  line: LineFields | undefined;
   rubricOptions: RubricOption[];
   convention: NoteNameConvention;
   onRemove: () => void;
@@ -279,7 +372,13 @@ function ChoiceGroup<T extends string | number>({
               <Checkbox
                 inputId={`${idPrefix}-${c}`}
                 checked={checked}
-                onChange={() => onChange(checked ? current.filter((x) => x !== c) : choices.filter((x) => x === c || current.includes(x)))}
+                onChange={() =>
+                  onChange(
+                    checked
+                      ? current.filter((x) => x !== c)
+                      : choices.filter((x) => x === c || current.includes(x)),
+                  )
+                }
               />
               <label htmlFor={`${idPrefix}-${c}`}>{label(c)}</label>
             </span>
@@ -292,7 +391,17 @@ function ChoiceGroup<T extends string | number>({
   );
 }
 
-function TitlesField({ value, onChange, id, error }: { value: string[] | undefined; onChange: (v: string[]) => void; id: string; error?: string }) {
+function TitlesField({
+  value,
+  onChange,
+  id,
+  error,
+}: {
+  value: string[] | undefined;
+  onChange: (v: string[]) => void;
+  id: string;
+  error?: string;
+}) {
   // Local text so a new, still empty line can be typed; the field gets the non-empty lines.
   const [text, setText] = useState((value ?? []).join('\n'));
   return (
@@ -319,22 +428,50 @@ function TitlesField({ value, onChange, id, error }: { value: string[] | undefin
   );
 }
 
-function LineEditor({ index, count, control, register, setValue, errors, rubricOptions, convention, onRemove, onMove }: LineProps) {
+function LineEditor({
+  index,
+  count,
+  control,
+  register,
+  setValue,
+  errors,
+  line,
+  rubricOptions,
+  convention,
+  onRemove,
+  onMove,
+}: LineProps) {
   const id = useId();
   const name = `lines.${index}` as const;
-  const line = useWatch({ control, name }) as LineFields | undefined;
   const e = errors.lines?.[index];
   const kind = (line?.kind ?? 'scale') as RequestKind;
   const counted = isCountedKind(kind);
   const title = line?.label?.trim() || `${KIND_LABELS[kind]} line`;
-  const figures = lineFigures({ kind, octaves: line?.octaves, directions: line?.directions, tempo: line?.tempo, durationSeconds: line?.durationSeconds });
+  const figures = lineFigures({
+    kind,
+    octaves: line?.octaves,
+    directions: line?.directions,
+    tempo: line?.tempo,
+    durationSeconds: line?.durationSeconds,
+  });
   const options = rubricOptions.filter((o) => o.kinds.includes(kind));
-  const inversionChoices = INVERSIONS.filter((i) => i !== 'third' || kind === 'dominant_seventh' || kind === 'diminished_seventh');
-  const set = (field: string, v: unknown) => setValue(`${name}.${field}` as Path<ListFields>, v as never, { shouldValidate: true, shouldDirty: true });
+  const inversionChoices = INVERSIONS.filter(
+    (i) => i !== 'third' || kind === 'dominant_seventh' || kind === 'diminished_seventh',
+  );
+  const set = (field: string, v: unknown) =>
+    setValue(`${name}.${field}` as Path<ListFields>, v as never, {
+      shouldValidate: true,
+      shouldDirty: true,
+    });
 
   const changeKind = (next: RequestKind) => {
     // Keep only what the new kind can use, so the line stays valid where it can.
-    const fresh = blankLine(next, options.some((o) => o.value === line?.rubricVersionId && o.kinds.includes(next)) ? (line?.rubricVersionId ?? '') : firstRubricFor(rubricOptions, next));
+    const fresh = blankLine(
+      next,
+      options.some((o) => o.value === line?.rubricVersionId && o.kinds.includes(next))
+        ? (line?.rubricVersionId ?? '')
+        : firstRubricFor(rubricOptions, next),
+    );
     const keep = line ?? fresh;
     setValue(
       name,
@@ -343,7 +480,17 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
         label: keep.label,
         tempo: keep.tempo,
         difficultyWeight: keep.difficultyWeight,
-        ...(isCountedKind(next) && counted ? { keys: keep.keys, hands: keep.hands, motions: keep.motions, octaves: keep.octaves, articulations: keep.articulations, dynamics: keep.dynamics, directions: keep.directions } : {}),
+        ...(isCountedKind(next) && counted
+          ? {
+              keys: keep.keys,
+              hands: keep.hands,
+              motions: keep.motions,
+              octaves: keep.octaves,
+              articulations: keep.articulations,
+              dynamics: keep.dynamics,
+              directions: keep.directions,
+            }
+          : {}),
         ...(isModalKind(next) && isModalKind(kind) ? { modes: keep.modes } : {}),
       },
       { shouldValidate: false, shouldDirty: true },
@@ -357,19 +504,53 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
           {index + 1}. {title}
         </h3>
         <span className="sm-row-actions">
-          <Button type="button" size="small" text icon="pi pi-arrow-up" aria-label={`Move line ${index + 1} up`} disabled={index === 0} onClick={() => onMove(index - 1)} />
-          <Button type="button" size="small" text icon="pi pi-arrow-down" aria-label={`Move line ${index + 1} down`} disabled={index === count - 1} onClick={() => onMove(index + 1)} />
-          <Button type="button" size="small" text severity="danger" icon="pi pi-trash" aria-label={`Remove line ${index + 1}`} disabled={count === 1} onClick={onRemove} />
+          <Button
+            type="button"
+            size="small"
+            text
+            icon="pi pi-arrow-up"
+            aria-label={`Move line ${index + 1} up`}
+            disabled={index === 0}
+            onClick={() => onMove(index - 1)}
+          />
+          <Button
+            type="button"
+            size="small"
+            text
+            icon="pi pi-arrow-down"
+            aria-label={`Move line ${index + 1} down`}
+            disabled={index === count - 1}
+            onClick={() => onMove(index + 1)}
+          />
+          <Button
+            type="button"
+            size="small"
+            text
+            severity="danger"
+            icon="pi pi-trash"
+            aria-label={`Remove line ${index + 1}`}
+            disabled={count === 1}
+            onClick={onRemove}
+          />
         </span>
       </div>
       <div className="sm-grid-4">
         <div className="sm-field">
           <label htmlFor={`${id}-kind`}>Kind</label>
-          <Dropdown inputId={`${id}-kind`} value={kind} options={REQUEST_KINDS.map((k) => ({ label: KIND_LABELS[k], value: k }))} onChange={(ev) => changeKind(ev.value as RequestKind)} />
+          <Dropdown
+            inputId={`${id}-kind`}
+            value={kind}
+            options={REQUEST_KINDS.map((k) => ({ label: KIND_LABELS[k], value: k }))}
+            onChange={(ev) => changeKind(ev.value as RequestKind)}
+          />
         </div>
         <div className="sm-field sm-span-2">
           <label htmlFor={`${id}-label`}>Label (optional)</label>
-          <InputText id={`${id}-label`} placeholder="e.g. Minor scales, hands together" {...register(`${name}.label`)} />
+          <InputText
+            id={`${id}-label`}
+            placeholder="e.g. Minor scales, hands together"
+            {...register(`${name}.label`)}
+          />
         </div>
         <div className="sm-field">
           <label htmlFor={`${id}-weight`}>Difficulty weight</label>
@@ -386,7 +567,9 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
         </div>
         {counted && (
           <div className="sm-field sm-span-4">
-            <label htmlFor={`${id}-keys`}>{keyWord(kind) === 'keys' ? 'Keys' : 'Starting notes'}</label>
+            <label htmlFor={`${id}-keys`}>
+              {keyWord(kind) === 'keys' ? 'Keys' : 'Starting notes'}
+            </label>
             <Controller
               control={control}
               name={`${name}.keys`}
@@ -395,7 +578,13 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
                   inputId={`${id}-keys`}
                   value={field.value}
                   options={KEY_OPTIONS}
-                  onChange={(ev) => field.onChange(KEY_OPTIONS.map((o) => o.value).filter((k) => (ev.value as string[]).includes(k)))}
+                  onChange={(ev) =>
+                    field.onChange(
+                      KEY_OPTIONS.map((o) => o.value).filter((k) =>
+                        (ev.value as string[]).includes(k),
+                      ),
+                    )
+                  }
                   display="chip"
                   filter
                   placeholder={`Choose ${keyWord(kind)}`}
@@ -405,13 +594,27 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
                 />
               )}
             />
-            <FieldError id={`${id}-keys-error`} message={e?.keys?.message ?? (Array.isArray(e?.keys) ? e.keys.find(Boolean)?.message : undefined)} />
+            <FieldError
+              id={`${id}-keys-error`}
+              message={
+                e?.keys?.message ??
+                (Array.isArray(e?.keys) ? e.keys.find(Boolean)?.message : undefined)
+              }
+            />
           </div>
         )}
       </div>
       <div className="sm-grid-2">
         {isModalKind(kind) && (
-          <ChoiceGroup legend="Modes" idPrefix={`${id}-mode`} choices={MODES} label={(m) => MODE_LABELS[m]} value={line?.modes} onChange={(v) => set('modes', v)} error={e?.modes?.message} />
+          <ChoiceGroup
+            legend="Modes"
+            idPrefix={`${id}-mode`}
+            choices={MODES}
+            label={(m) => MODE_LABELS[m]}
+            value={line?.modes}
+            onChange={(v) => set('modes', v)}
+            error={e?.modes?.message}
+          />
         )}
         <ChoiceGroup
           legend="Hands"
@@ -438,7 +641,15 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
           />
         )}
         {counted && (
-          <ChoiceGroup legend="Octaves" idPrefix={`${id}-oct`} choices={OCTAVE_CHOICES} label={(o) => String(o)} value={line?.octaves} onChange={(v) => set('octaves', v)} error={e?.octaves?.message} />
+          <ChoiceGroup
+            legend="Octaves"
+            idPrefix={`${id}-oct`}
+            choices={OCTAVE_CHOICES}
+            label={(o) => String(o)}
+            value={line?.octaves}
+            onChange={(v) => set('octaves', v)}
+            error={e?.octaves?.message}
+          />
         )}
         {counted && (
           <ChoiceGroup
@@ -452,9 +663,23 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
           />
         )}
         {counted && (
-          <ChoiceGroup legend="Articulation" idPrefix={`${id}-art`} choices={ARTICULATIONS} label={(a) => ARTICULATION_LABELS[a]} value={line?.articulations} onChange={(v) => set('articulations', v)} />
+          <ChoiceGroup
+            legend="Articulation"
+            idPrefix={`${id}-art`}
+            choices={ARTICULATIONS}
+            label={(a) => ARTICULATION_LABELS[a]}
+            value={line?.articulations}
+            onChange={(v) => set('articulations', v)}
+          />
         )}
-        <ChoiceGroup legend="Dynamics" idPrefix={`${id}-dyn`} choices={DYNAMICS} label={(d) => DYNAMIC_LABELS[d]} value={line?.dynamics} onChange={(v) => set('dynamics', v)} />
+        <ChoiceGroup
+          legend="Dynamics"
+          idPrefix={`${id}-dyn`}
+          choices={DYNAMICS}
+          label={(d) => DYNAMIC_LABELS[d]}
+          value={line?.dynamics}
+          onChange={(v) => set('dynamics', v)}
+        />
         {isInvertibleKind(kind) && (
           <ChoiceGroup
             legend="Positions"
@@ -470,7 +695,15 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
       <div className="sm-grid-4">
         <div className="sm-field">
           <label htmlFor={`${id}-bpm`}>Beats per minute</label>
-          <InputText id={`${id}-bpm`} type="number" inputMode="decimal" step="any" invalid={!!e?.tempo?.bpm} aria-describedby={`${id}-bpm-error`} {...register(`${name}.tempo.bpm`, { valueAsNumber: true })} />
+          <InputText
+            id={`${id}-bpm`}
+            type="number"
+            inputMode="decimal"
+            step="any"
+            invalid={!!e?.tempo?.bpm}
+            aria-describedby={`${id}-bpm-error`}
+            {...register(`${name}.tempo.bpm`, { valueAsNumber: true })}
+          />
           <FieldError id={`${id}-bpm-error`} message={e?.tempo?.bpm?.message} />
         </div>
         <div className="sm-field">
@@ -479,7 +712,12 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
             control={control}
             name={`${name}.tempo.beatUnit`}
             render={({ field }) => (
-              <Dropdown inputId={`${id}-unit`} value={field.value} options={BEAT_UNITS.map((u) => ({ label: noteValueName(u, convention), value: u }))} onChange={(ev) => field.onChange(ev.value)} />
+              <Dropdown
+                inputId={`${id}-unit`}
+                value={field.value}
+                options={BEAT_UNITS.map((u) => ({ label: noteValueName(u, convention), value: u }))}
+                onChange={(ev) => field.onChange(ev.value)}
+              />
             )}
           />
         </div>
@@ -500,7 +738,16 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
             Tempo
           </span>
           <p className="sm-tempo-words" aria-label="Tempo in words">
-            {line?.tempo ? tempoLabel({ bpm: Number(line.tempo.bpm), beatUnit: line.tempo.beatUnit, notesPerBeat: Number(line.tempo.notesPerBeat) }, convention) : '—'}
+            {line?.tempo
+              ? tempoLabel(
+                  {
+                    bpm: Number(line.tempo.bpm),
+                    beatUnit: line.tempo.beatUnit,
+                    notesPerBeat: Number(line.tempo.notesPerBeat),
+                  },
+                  convention,
+                )
+              : '—'}
           </p>
         </div>
         {!counted && (
@@ -508,7 +755,14 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
             <Controller
               control={control}
               name={`${name}.titles`}
-              render={({ field }) => <TitlesField id={`${id}-titles`} value={field.value} onChange={field.onChange} error={e?.titles?.message} />}
+              render={({ field }) => (
+                <TitlesField
+                  id={`${id}-titles`}
+                  value={field.value}
+                  onChange={field.onChange}
+                  error={e?.titles?.message}
+                />
+              )}
             />
             <div className="sm-field">
               <label htmlFor={`${id}-duration`}>Playing time (seconds)</label>
@@ -535,7 +789,11 @@ function LineEditor({ index, count, control, register, setValue, errors, rubricO
                 value={field.value}
                 options={options}
                 onChange={(ev) => field.onChange(ev.value)}
-                placeholder={options.length ? 'Choose a rubric' : `No rubric for ${KIND_LABELS[kind].toLowerCase()}s yet`}
+                placeholder={
+                  options.length
+                    ? 'Choose a rubric'
+                    : `No rubric for ${KIND_LABELS[kind].toLowerCase()}s yet`
+                }
                 invalid={!!e?.rubricVersionId}
                 aria-describedby={`${id}-rubric-error`}
               />

@@ -1,7 +1,16 @@
 import { useId, useState, type ReactNode } from 'react';
 import { Button } from 'primereact/button';
 import { InputText } from 'primereact/inputtext';
-import { DrawError, drawRequests, itemDurationSeconds, planSlotMinutes, type NoteNameConvention, type RequirementLine, type SelectionRule } from '@stavemark/shared';
+import {
+  DrawError,
+  drawRequests,
+  itemDurationSeconds,
+  planSlotMinutes,
+  type DrawResult,
+  type NoteNameConvention,
+  type RequirementLine,
+  type SelectionRule,
+} from '@stavemark/shared';
 import { describeRequest, formatSeconds, tempoLabel } from './labels';
 
 interface Props {
@@ -23,57 +32,81 @@ function newSeed(): string {
 export function SampleDraws({ lines, rule, convention, initialSeed = 'preview' }: Props) {
   const id = useId();
   const [seed, setSeed] = useState(initialSeed);
-  let body: ReactNode;
-  if (!lines || !rule) {
-    body = <p className="sm-muted">Complete the lines and the selection rule to see sample draws.</p>;
-  } else {
+  // Computed first, rendered after: the draw may refuse (a rule the lines cannot honour).
+  type Outcome =
+    | { kind: 'incomplete' }
+    | { kind: 'refused'; message: string }
+    | { kind: 'drawn'; draw: DrawResult; total: number; slot: number };
+  let outcome: Outcome;
+  if (!lines || !rule) outcome = { kind: 'incomplete' };
+  else {
     try {
       const draw = drawRequests({ lines }, rule, seed);
-      const total = draw.requests.reduce((s, r) => s + itemDurationSeconds(r), 0);
-      const slot = planSlotMinutes({ lines, selectionRule: rule });
-      body = (
-        <>
-          <table className="sm-table" aria-label="Sample draw">
-            <thead>
-              <tr>
-                <th scope="col" className="sm-num">
-                  #
-                </th>
-                <th scope="col">Request</th>
-                <th scope="col">Tempo</th>
-                <th scope="col" className="sm-num">
-                  Playing time
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {draw.requests.map((r) => (
-                <tr key={r.index}>
-                  <td className="sm-num">{r.index + 1}</td>
-                  <td>{describeRequest(r)}</td>
-                  <td>{tempoLabel(r.tempo, convention)}</td>
-                  <td className="sm-num">{formatSeconds(itemDurationSeconds(r))}</td>
-                </tr>
-              ))}
-            </tbody>
-            <tfoot>
-              <tr>
-                <th scope="row" colSpan={3}>
-                  Playing time of this draw
-                </th>
-                <td className="sm-num">{formatSeconds(total)}</td>
-              </tr>
-            </tfoot>
-          </table>
-          <p className="sm-field-hint">
-            Suggested slot for this list: {slot} minutes (the slowest plausible draw, time to ask and settle each request, and a greeting; the write-up gap is
-            added when a sitting is planned).
-          </p>
-        </>
-      );
+      const total = draw.requests.reduce((sum, r) => sum + itemDurationSeconds(r), 0);
+      outcome = {
+        kind: 'drawn',
+        draw,
+        total,
+        slot: planSlotMinutes({ lines, selectionRule: rule }),
+      };
     } catch (err) {
-      body = <p className="sm-field-error">{err instanceof DrawError || err instanceof RangeError ? err.message : 'These lines cannot be drawn from yet.'}</p>;
+      outcome = {
+        kind: 'refused',
+        message:
+          err instanceof DrawError || err instanceof RangeError
+            ? err.message
+            : 'These lines cannot be drawn from yet.',
+      };
     }
+  }
+  let body: ReactNode;
+  if (outcome.kind === 'incomplete')
+    body = (
+      <p className="sm-muted">Complete the lines and the selection rule to see sample draws.</p>
+    );
+  else if (outcome.kind === 'refused') body = <p className="sm-field-error">{outcome.message}</p>;
+  else {
+    const { draw, total, slot } = outcome;
+    body = (
+      <>
+        <table className="sm-table" aria-label="Sample draw">
+          <thead>
+            <tr>
+              <th scope="col" className="sm-num">
+                #
+              </th>
+              <th scope="col">Request</th>
+              <th scope="col">Tempo</th>
+              <th scope="col" className="sm-num">
+                Playing time
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {draw.requests.map((r) => (
+              <tr key={r.index}>
+                <td className="sm-num">{r.index + 1}</td>
+                <td>{describeRequest(r)}</td>
+                <td>{tempoLabel(r.tempo, convention)}</td>
+                <td className="sm-num">{formatSeconds(itemDurationSeconds(r))}</td>
+              </tr>
+            ))}
+          </tbody>
+          <tfoot>
+            <tr>
+              <th scope="row" colSpan={3}>
+                Playing time of this draw
+              </th>
+              <td className="sm-num">{formatSeconds(total)}</td>
+            </tr>
+          </tfoot>
+        </table>
+        <p className="sm-field-hint">
+          Suggested slot for this list: {slot} minutes (the slowest plausible draw, time to ask and
+          settle each request, and a greeting; the write-up gap is added when a sitting is planned).
+        </p>
+      </>
+    );
   }
   return (
     <section className="sm-sheet" aria-labelledby={`${id}-title`}>
@@ -81,9 +114,20 @@ export function SampleDraws({ lines, rule, convention, initialSeed = 'preview' }
       <div className="sm-toolbar">
         <div className="sm-field">
           <label htmlFor={`${id}-seed`}>Seed</label>
-          <InputText id={`${id}-seed`} value={seed} onChange={(e) => setSeed(e.target.value)} aria-describedby={`${id}-seed-hint`} />
+          <InputText
+            id={`${id}-seed`}
+            value={seed}
+            onChange={(e) => setSeed(e.target.value)}
+            aria-describedby={`${id}-seed-hint`}
+          />
         </div>
-        <Button type="button" icon="pi pi-refresh" label="Another draw" severity="secondary" onClick={() => setSeed(newSeed())} />
+        <Button
+          type="button"
+          icon="pi pi-refresh"
+          label="Another draw"
+          severity="secondary"
+          onClick={() => setSeed(newSeed())}
+        />
         <small id={`${id}-seed-hint`} className="sm-field-hint sm-toolbar-note">
           The same seed always gives the same requests.
         </small>

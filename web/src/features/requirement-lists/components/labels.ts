@@ -39,15 +39,25 @@ export const MODE_LABELS: Record<Mode, string> = {
   melodic_minor: 'melodic minor',
   natural_minor: 'natural minor',
 };
-export const HANDS_LABELS: Record<Hands, string> = { RH: 'right hand', LH: 'left hand', HT: 'hands together' };
+export const HANDS_LABELS: Record<Hands, string> = {
+  RH: 'right hand',
+  LH: 'left hand',
+  HT: 'hands together',
+};
 export const MOTION_LABELS: Record<Motion, string> = {
   similar: 'similar motion',
   contrary: 'contrary motion',
   third_apart: 'a third apart',
   sixth_apart: 'a sixth apart',
 };
-export const DIRECTION_LABELS: Record<Direction, string> = { up: 'up only', up_down: 'up and down' };
-export const ARTICULATION_LABELS: Record<Articulation, string> = { legato: 'legato', staccato: 'staccato' };
+export const DIRECTION_LABELS: Record<Direction, string> = {
+  up: 'up only',
+  up_down: 'up and down',
+};
+export const ARTICULATION_LABELS: Record<Articulation, string> = {
+  legato: 'legato',
+  staccato: 'staccato',
+};
 export const DYNAMIC_LABELS: Record<Dynamic, string> = {
   pp: 'pp',
   p: 'p',
@@ -121,21 +131,39 @@ export function lineFigures(line: LineLike): LineFigures {
   try {
     nps = notesPerSecond({ bpm, notesPerBeat: npb });
   } catch {
-    return { spans: [], notesPerSecond: null, problem: 'Give the tempo (beats per minute and notes per beat) to see the timing.' };
+    return {
+      spans: [],
+      notesPerSecond: null,
+      problem: 'Give the tempo (beats per minute and notes per beat) to see the timing.',
+    };
   }
   if (!isCountedKind(line.kind)) {
     const d = Number(line.durationSeconds);
-    if (!(d > 0)) return { spans: [], notesPerSecond: nps, problem: 'Give the playing time in seconds.' };
-    return { spans: [{ octaves: 0, direction: 'up', notes: null, seconds: d }], notesPerSecond: nps, problem: null };
+    if (!(d > 0))
+      return { spans: [], notesPerSecond: nps, problem: 'Give the playing time in seconds.' };
+    return {
+      spans: [{ octaves: 0, direction: 'up', notes: null, seconds: d }],
+      notesPerSecond: nps,
+      problem: null,
+    };
   }
-  const octaves = [...(line.octaves ?? [])].filter((o) => Number.isInteger(o)).sort((a, b) => a - b);
-  if (octaves.length === 0) return { spans: [], notesPerSecond: nps, problem: 'Choose the octaves to see note counts.' };
-  const directions: Direction[] = line.directions && line.directions.length > 0 ? [...line.directions] : ['up_down'];
+  const octaves = [...(line.octaves ?? [])]
+    .filter((o) => Number.isInteger(o))
+    .sort((a, b) => a - b);
+  if (octaves.length === 0)
+    return { spans: [], notesPerSecond: nps, problem: 'Choose the octaves to see note counts.' };
+  const directions: Direction[] =
+    line.directions && line.directions.length > 0 ? [...line.directions] : ['up_down'];
   const spans: SpanFigures[] = [];
   for (const o of octaves)
     for (const direction of directions) {
       const tempo = { bpm, notesPerBeat: npb };
-      spans.push({ octaves: o, direction, notes: noteCount({ kind: line.kind, octaves: o, direction }), seconds: itemDurationSeconds({ kind: line.kind, octaves: o, direction, tempo }) });
+      spans.push({
+        octaves: o,
+        direction,
+        notes: noteCount({ kind: line.kind, octaves: o, direction }),
+        seconds: itemDurationSeconds({ kind: line.kind, octaves: o, direction, tempo }),
+      });
     }
   return { spans, notesPerSecond: nps, problem: null };
 }
@@ -146,8 +174,10 @@ export function describeRequest(r: Request): string {
   if (r.title) parts.push(r.title);
   else {
     const what = KIND_LABELS[r.kind];
-    if (r.kind === 'chromatic' || r.kind === 'diminished_seventh') parts.push(`${what} starting on ${r.key ? displayNoteName(r.key) : '?'}`);
-    else if (r.kind === 'dominant_seventh') parts.push(`${what} in ${r.key ? displayNoteName(r.key) : '?'}`);
+    if (r.kind === 'chromatic' || r.kind === 'diminished_seventh')
+      parts.push(`${what} starting on ${r.key ? displayNoteName(r.key) : '?'}`);
+    else if (r.kind === 'dominant_seventh')
+      parts.push(`${what} in ${r.key ? displayNoteName(r.key) : '?'}`);
     else parts.push(`${r.key ? keyLabel(r.key, r.mode) : '?'} ${what.toLowerCase()}`);
   }
   if (r.inversion && r.inversion !== 'root') parts.push(INVERSION_LABELS[r.inversion]);

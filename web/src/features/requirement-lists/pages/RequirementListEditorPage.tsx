@@ -14,7 +14,12 @@ import { useRequirementList } from '../api/get-requirement-list';
 import { useRequirementListVersion } from '../api/get-requirement-list-version';
 import { useRubricOptions } from '../api/get-rubric-options';
 import { useUpdateRequirementListVersion } from '../api/update-requirement-list-version';
-import { blankLine, RequirementListForm, type ListFields, type RubricOption } from '../components/RequirementListForm';
+import {
+  blankLine,
+  RequirementListForm,
+  type ListFields,
+  type RubricOption,
+} from '../components/RequirementListForm';
 
 function fieldsOf(v: RequirementListVersionView): ListFields {
   return {
@@ -29,7 +34,13 @@ function fieldsOf(v: RequirementListVersionView): ListFields {
 
 function blankList(options: RubricOption[]): ListFields {
   const scales = options.find((o) => o.kinds.includes('scale'))?.value ?? '';
-  return { name: '', grade: '', totalMarks: 30, selectionRule: { count: 2, minPerKind: { scale: 1 } }, lines: [blankLine('scale', scales)] };
+  return {
+    name: '',
+    grade: '',
+    totalMarks: 30,
+    selectionRule: { count: 2, minPerKind: { scale: 1 } },
+    lines: [blankLine('scale', scales)],
+  };
 }
 
 export function NewRequirementListPage() {
@@ -38,7 +49,8 @@ export function NewRequirementListPage() {
   const me = useCurrentUser();
   const rubrics = useRubricOptions();
   const create = useCreateRequirementList();
-  if (rubrics.isError) return <ErrorMessage error={rubrics.error} what="the rubrics to mark with" />;
+  if (rubrics.isError)
+    return <ErrorMessage error={rubrics.error} what="the rubrics to mark with" />;
   if (!rubrics.data) return <PageLoading />;
   return (
     <section aria-labelledby={`${id}-title`}>
@@ -48,10 +60,16 @@ export function NewRequirementListPage() {
       <div className="sm-page-header">
         <div>
           <h1 id={`${id}-title`}>New requirement list</h1>
-          <p className="sm-page-subtitle">Saved as a draft (version 1); publish it when sittings may use it.</p>
+          <p className="sm-page-subtitle">
+            Saved as a draft (version 1); publish it when sittings may use it.
+          </p>
         </div>
       </div>
-      {rubrics.data.length === 0 && <Alert severity="warn">There are no rubrics yet. Create one first: every line is marked with a rubric.</Alert>}
+      {rubrics.data.length === 0 && (
+        <Alert severity="warn">
+          There are no rubrics yet. Create one first: every line is marked with a rubric.
+        </Alert>
+      )}
       <RequirementListForm
         defaultValues={blankList(rubrics.data)}
         rubricOptions={rubrics.data}
@@ -87,16 +105,20 @@ export function EditRequirementListPage() {
   return (
     <section aria-labelledby={`${id}-title`}>
       <p className="sm-breadcrumb">
-        <Link to={paths.requirementLists.href()}>Requirement lists</Link> / <Link to={paths.requirementList.href(listId)}>{v.name}</Link>
+        <Link to={paths.requirementLists.href()}>Requirement lists</Link> /{' '}
+        <Link to={paths.requirementList.href(listId)}>{v.name}</Link>
       </p>
       <div className="sm-page-header">
         <div>
-          <h1 id={`${id}-title`}>{isDraft ? `Edit draft version ${v.version}` : `New version of “${v.name}”`}</h1>
+          <h1 id={`${id}-title`}>
+            {isDraft ? `Edit draft version ${v.version}` : `New version of “${v.name}”`}
+          </h1>
         </div>
       </div>
       {!isDraft && (
         <Alert severity="info">
-          Version {v.version} is published and stays exactly as it is. Saving makes version {v.version + 1}, a draft, which you publish when sittings may use it.
+          Version {v.version} is published and stays exactly as it is. Saving makes version{' '}
+          {v.version + 1}, a draft, which you publish when sittings may use it.
         </Alert>
       )}
       <RequirementListForm
@@ -107,8 +129,13 @@ export function EditRequirementListPage() {
         submitLabel={isDraft ? 'Save draft' : `Save as version ${v.version + 1}`}
         onCancel={() => navigate(paths.requirementList.href(listId, v.version))}
         onSave={async (body) => {
-          const saved = isDraft ? await update.mutateAsync({ id: v.id, body }) : await createVersion.mutateAsync({ listId, body });
-          notify({ severity: 'success', summary: `Version ${saved.version} was saved as a draft.` });
+          const saved = isDraft
+            ? await update.mutateAsync({ id: v.id, body })
+            : await createVersion.mutateAsync({ listId, body });
+          notify({
+            severity: 'success',
+            summary: `Version ${saved.version} was saved as a draft.`,
+          });
           navigate(paths.requirementList.href(listId, saved.version));
         }}
       />

@@ -39,12 +39,17 @@ export function RequirementListPage() {
   const detail = list.data;
   const draft = versions.find((v) => v.status === 'draft');
   const v = version.data;
-  const minimums = v ? REQUEST_KINDS.filter((k) => (v.selectionRule.minPerKind[k] ?? 0) > 0).map((k) => `${v.selectionRule.minPerKind[k]} ${KIND_LABELS[k].toLowerCase()}`) : [];
+  const minimums = v
+    ? REQUEST_KINDS.filter((k) => (v.selectionRule.minPerKind[k] ?? 0) > 0).map(
+        (k) => `${v.selectionRule.minPerKind[k]} ${KIND_LABELS[k].toLowerCase()}`,
+      )
+    : [];
 
   const askPublish = () =>
     confirmDialog({
       header: `Publish version ${selected?.version}?`,
-      message: 'Sittings can use a published version, and it never changes again. Later edits are saved as a new version.',
+      message:
+        'Sittings can use a published version, and it never changes again. Later edits are saved as a new version.',
       acceptLabel: 'Publish',
       rejectLabel: 'Not yet',
       rejectClassName: 'p-button-secondary',
@@ -65,15 +70,37 @@ export function RequirementListPage() {
         <span className="sm-row-actions">
           {canEdit && selected?.status === 'draft' && (
             <>
-              <Button type="button" icon="pi pi-pencil" label="Edit draft" severity="secondary" onClick={() => navigate(paths.requirementListEdit.href(detail.id))} />
-              <Button type="button" icon="pi pi-check" label="Publish" disabled={publish.isPending} onClick={askPublish} />
+              <Button
+                type="button"
+                icon="pi pi-pencil"
+                label="Edit draft"
+                severity="secondary"
+                onClick={() => navigate(paths.requirementListEdit.href(detail.id))}
+              />
+              <Button
+                type="button"
+                icon="pi pi-check"
+                label="Publish"
+                disabled={publish.isPending}
+                onClick={askPublish}
+              />
             </>
           )}
           {canEdit && selected?.status === 'published' && !draft && (
-            <Button type="button" icon="pi pi-pencil" label="Edit as a new version" onClick={() => navigate(paths.requirementListEdit.href(detail.id))} />
+            <Button
+              type="button"
+              icon="pi pi-pencil"
+              label="Edit as a new version"
+              onClick={() => navigate(paths.requirementListEdit.href(detail.id))}
+            />
           )}
           {canEdit && selected?.status === 'published' && draft && (
-            <Button type="button" label={`Open the draft (version ${draft.version})`} severity="secondary" onClick={() => setSearch({ version: String(draft.version) })} />
+            <Button
+              type="button"
+              label={`Open the draft (version ${draft.version})`}
+              severity="secondary"
+              onClick={() => setSearch({ version: String(draft.version) })}
+            />
           )}
         </span>
       </div>
@@ -84,13 +111,19 @@ export function RequirementListPage() {
           <Dropdown
             inputId={`${id}-version`}
             value={selected?.version}
-            options={versions.map((x) => ({ label: `Version ${x.version} · ${x.status === 'published' ? 'published' : 'draft'}`, value: x.version }))}
+            options={versions.map((x) => ({
+              label: `Version ${x.version} · ${x.status === 'published' ? 'published' : 'draft'}`,
+              value: x.version,
+            }))}
             onChange={(e) => setSearch({ version: String(e.value) })}
           />
         </div>
         {selected && (
           <p className="sm-muted sm-toolbar-note">
-            <Tag severity={selected.status === 'published' ? 'success' : 'warning'} value={selected.status === 'published' ? 'Published' : 'Draft'} />{' '}
+            <Tag
+              severity={selected.status === 'published' ? 'success' : 'warning'}
+              value={selected.status === 'published' ? 'Published' : 'Draft'}
+            />{' '}
             {selected.status === 'published' && selected.publishedAt
               ? `Published ${formatDateInZone(selected.publishedAt, timeZone)}.`
               : `Started ${formatDateInZone(selected.createdAt, timeZone)}; sittings cannot use it until it is published.`}
@@ -100,7 +133,8 @@ export function RequirementListPage() {
       </div>
       {selected && selected.version !== detail.latest.version && (
         <Alert severity="info">
-          You are looking at version {selected.version}. The latest is version {detail.latest.version}.
+          You are looking at version {selected.version}. The latest is version{' '}
+          {detail.latest.version}.
         </Alert>
       )}
       {version.isError && <ErrorMessage error={version.error} what="this version" />}
@@ -118,7 +152,9 @@ export function RequirementListPage() {
             </div>
             <div>
               <dt>At least</dt>
-              <dd className="sm-figure-text">{minimums.length ? minimums.join(', ') : 'no minimum'}</dd>
+              <dd className="sm-figure-text">
+                {minimums.length ? minimums.join(', ') : 'no minimum'}
+              </dd>
             </div>
             <div>
               <dt>Lines</dt>
@@ -126,7 +162,13 @@ export function RequirementListPage() {
             </div>
           </dl>
           <LinesTable lines={v.lines} convention={me.noteNames} />
-          <SampleDraws key={v.id} lines={v.lines} rule={v.selectionRule} convention={me.noteNames} initialSeed={`${v.grade}-${v.version}`} />
+          <SampleDraws
+            key={v.id}
+            lines={v.lines}
+            rule={v.selectionRule}
+            convention={me.noteNames}
+            initialSeed={`${v.grade}-${v.version}`}
+          />
         </>
       )}
       <ConfirmDialog />

@@ -12,7 +12,12 @@ import { ErrorMessage } from '@/components/ErrorMessage';
 import { useRequirementLists } from '../api/get-requirement-lists';
 
 function versionTag(v: { version: number; status: 'draft' | 'published' }) {
-  return <Tag severity={v.status === 'published' ? 'success' : 'warning'} value={`Version ${v.version} · ${v.status === 'published' ? 'published' : 'draft'}`} />;
+  return (
+    <Tag
+      severity={v.status === 'published' ? 'success' : 'warning'}
+      value={`Version ${v.version} · ${v.status === 'published' ? 'published' : 'draft'}`}
+    />
+  );
 }
 
 export function RequirementListsPage() {
@@ -27,9 +32,19 @@ export function RequirementListsPage() {
       <div className="sm-page-header">
         <div>
           <h1 id={`${id}-title`}>Requirement lists</h1>
-          <p className="sm-page-subtitle">What may be asked at each grade, written as templates; the examiner’s requests are drawn from them.</p>
+          <p className="sm-page-subtitle">
+            What may be asked at each grade, written as templates; the examiner’s requests are drawn
+            from them.
+          </p>
         </div>
-        {canEdit && <Button type="button" icon="pi pi-plus" label="New requirement list" onClick={() => navigate(paths.requirementListNew.href())} />}
+        {canEdit && (
+          <Button
+            type="button"
+            icon="pi pi-plus"
+            label="New requirement list"
+            onClick={() => navigate(paths.requirementListNew.href())}
+          />
+        )}
       </div>
       {lists.isError && <ErrorMessage error={lists.error} what="the requirement lists" />}
       <div className="sm-table-wrap">
@@ -38,7 +53,7 @@ export function RequirementListsPage() {
           dataKey="id"
           size="small"
           loading={lists.isFetching}
-          pt={{ table: { "aria-label": "Requirement lists" } }}
+          pt={{ table: { 'aria-label': 'Requirement lists' } }}
           emptyMessage={lists.isPending ? 'Loading…' : 'No requirement lists yet.'}
         >
           <Column field="grade" header="Grade" />
@@ -52,9 +67,28 @@ export function RequirementListsPage() {
             )}
           />
           <Column header="Latest" body={(l: RequirementListSummary) => versionTag(l.latest)} />
-          <Column header="In use" body={(l: RequirementListSummary) => (l.published ? `Version ${l.published.version}` : <span className="sm-muted">Not published yet</span>)} />
-          <Column header="Lines" className="sm-num" headerClassName="sm-num" body={(l: RequirementListSummary) => l.latest.lineCount} />
-          <Column header="Total marks" className="sm-num" headerClassName="sm-num" body={(l: RequirementListSummary) => l.latest.totalMarks} />
+          <Column
+            header="In use"
+            body={(l: RequirementListSummary) =>
+              l.published ? (
+                `Version ${l.published.version}`
+              ) : (
+                <span className="sm-muted">Not published yet</span>
+              )
+            }
+          />
+          <Column
+            header="Lines"
+            className="sm-num"
+            headerClassName="sm-num"
+            body={(l: RequirementListSummary) => l.latest.lineCount}
+          />
+          <Column
+            header="Total marks"
+            className="sm-num"
+            headerClassName="sm-num"
+            body={(l: RequirementListSummary) => l.latest.totalMarks}
+          />
         </DataTable>
       </div>
     </section>

@@ -31,7 +31,12 @@ export function ImportRubricButton({ onImported, onError }: Props) {
           importRubric.mutate(file, {
             onSuccess: onImported,
             onError: (err) =>
-              onError(err instanceof ApiError ? err.message : 'The server could not be reached. Nothing was imported.', err instanceof ApiError ? err.fieldErrors : []),
+              onError(
+                err instanceof ApiError
+                  ? err.message
+                  : 'The server could not be reached. Nothing was imported.',
+                err instanceof ApiError ? err.fieldErrors : [],
+              ),
           });
         }}
       />

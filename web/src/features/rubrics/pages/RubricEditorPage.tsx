@@ -18,7 +18,11 @@ function fieldsOf(v: RubricVersionView): RubricFields {
   return {
     name: v.name,
     kinds: [...v.kinds],
-    criteria: v.criteria.map((c) => ({ ...c, description: c.description ?? '', descriptors: c.descriptors.map((d) => ({ ...d })) })),
+    criteria: v.criteria.map((c) => ({
+      ...c,
+      description: c.description ?? '',
+      descriptors: c.descriptors.map((d) => ({ ...d })),
+    })),
   };
 }
 
@@ -35,7 +39,9 @@ export function NewRubricPage() {
       <div className="sm-page-header">
         <div>
           <h1 id={`${id}-title`}>New rubric</h1>
-          <p className="sm-page-subtitle">Saved as a draft (version 1); publish it when it is ready for marking.</p>
+          <p className="sm-page-subtitle">
+            Saved as a draft (version 1); publish it when it is ready for marking.
+          </p>
         </div>
       </div>
       <RubricForm
@@ -75,16 +81,20 @@ export function EditRubricPage() {
   return (
     <section aria-labelledby={`${id}-title`}>
       <p className="sm-breadcrumb">
-        <Link to={paths.rubrics.href()}>Rubrics</Link> / <Link to={paths.rubric.href(rubricId)}>{v.name}</Link>
+        <Link to={paths.rubrics.href()}>Rubrics</Link> /{' '}
+        <Link to={paths.rubric.href(rubricId)}>{v.name}</Link>
       </p>
       <div className="sm-page-header">
         <div>
-          <h1 id={`${id}-title`}>{isDraft ? `Edit draft version ${v.version}` : `New version of “${v.name}”`}</h1>
+          <h1 id={`${id}-title`}>
+            {isDraft ? `Edit draft version ${v.version}` : `New version of “${v.name}”`}
+          </h1>
         </div>
       </div>
       {!isDraft && (
         <Alert severity="info">
-          Version {v.version} is published and stays exactly as it is. Saving makes version {v.version + 1}, a draft, which you publish when it is ready.
+          Version {v.version} is published and stays exactly as it is. Saving makes version{' '}
+          {v.version + 1}, a draft, which you publish when it is ready.
         </Alert>
       )}
       <RubricForm
@@ -93,8 +103,13 @@ export function EditRubricPage() {
         submitLabel={isDraft ? 'Save draft' : `Save as version ${v.version + 1}`}
         onCancel={back}
         onSave={async (body) => {
-          const saved = isDraft ? await update.mutateAsync({ id: v.id, body }) : await createVersion.mutateAsync({ rubricId, body });
-          notify({ severity: 'success', summary: `Version ${saved.version} was saved as a draft.` });
+          const saved = isDraft
+            ? await update.mutateAsync({ id: v.id, body })
+            : await createVersion.mutateAsync({ rubricId, body });
+          notify({
+            severity: 'success',
+            summary: `Version ${saved.version} was saved as a draft.`,
+          });
           navigate(paths.rubric.href(rubricId, saved.version));
         }}
       />

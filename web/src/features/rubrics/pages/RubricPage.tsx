@@ -44,7 +44,8 @@ export function RubricPage() {
   const askPublish = () =>
     confirmDialog({
       header: `Publish version ${selected?.version}?`,
-      message: 'A published version never changes: marks and requirement lists can rely on it. Later edits are saved as a new version.',
+      message:
+        'A published version never changes: marks and requirement lists can rely on it. Later edits are saved as a new version.',
       acceptLabel: 'Publish',
       rejectLabel: 'Not yet',
       rejectClassName: 'p-button-secondary',
@@ -72,20 +73,48 @@ export function RubricPage() {
               label="Export"
               severity="secondary"
               disabled={exportFile.isPending}
-              onClick={() => exportFile.mutate({ id: selected.id, name: selected.name, version: selected.version })}
+              onClick={() =>
+                exportFile.mutate({
+                  id: selected.id,
+                  name: selected.name,
+                  version: selected.version,
+                })
+              }
             />
           )}
           {canEdit && selected?.status === 'draft' && (
             <>
-              <Button type="button" icon="pi pi-pencil" label="Edit draft" severity="secondary" onClick={() => navigate(paths.rubricEdit.href(detail.id))} />
-              <Button type="button" icon="pi pi-check" label="Publish" disabled={publish.isPending} onClick={askPublish} />
+              <Button
+                type="button"
+                icon="pi pi-pencil"
+                label="Edit draft"
+                severity="secondary"
+                onClick={() => navigate(paths.rubricEdit.href(detail.id))}
+              />
+              <Button
+                type="button"
+                icon="pi pi-check"
+                label="Publish"
+                disabled={publish.isPending}
+                onClick={askPublish}
+              />
             </>
           )}
           {canEdit && selected?.status === 'published' && !draft && (
-            <Button type="button" icon="pi pi-pencil" label="Edit as a new version" onClick={() => navigate(paths.rubricEdit.href(detail.id))} />
+            <Button
+              type="button"
+              icon="pi pi-pencil"
+              label="Edit as a new version"
+              onClick={() => navigate(paths.rubricEdit.href(detail.id))}
+            />
           )}
           {canEdit && selected?.status === 'published' && draft && (
-            <Button type="button" label={`Open the draft (version ${draft.version})`} severity="secondary" onClick={() => setSearch({ version: String(draft.version) })} />
+            <Button
+              type="button"
+              label={`Open the draft (version ${draft.version})`}
+              severity="secondary"
+              onClick={() => setSearch({ version: String(draft.version) })}
+            />
           )}
         </span>
       </div>
@@ -96,7 +125,10 @@ export function RubricPage() {
           <Dropdown
             inputId={`${id}-version`}
             value={selected?.version}
-            options={versions.map((x) => ({ label: `Version ${x.version} · ${x.status === 'published' ? 'published' : 'draft'}`, value: x.version }))}
+            options={versions.map((x) => ({
+              label: `Version ${x.version} · ${x.status === 'published' ? 'published' : 'draft'}`,
+              value: x.version,
+            }))}
             onChange={(e) => setSearch({ version: String(e.value) })}
           />
         </div>
@@ -112,11 +144,16 @@ export function RubricPage() {
 
       {selected && selected.version !== latest.version && (
         <Alert severity="info">
-          You are looking at version {selected.version}. The latest is version {latest.version} ({latest.status === 'published' ? 'published' : 'a draft'}).
+          You are looking at version {selected.version}. The latest is version {latest.version} (
+          {latest.status === 'published' ? 'published' : 'a draft'}).
         </Alert>
       )}
       {version.isError && <ErrorMessage error={version.error} what="this version" />}
-      {v ? <CriteriaView criteria={v.criteria} /> : version.isPending && <PageLoading label="Loading the criteria…" />}
+      {v ? (
+        <CriteriaView criteria={v.criteria} />
+      ) : (
+        version.isPending && <PageLoading label="Loading the criteria…" />
+      )}
       <ConfirmDialog />
     </section>
   );

@@ -5,7 +5,12 @@ import { Column } from 'primereact/column';
 import { Button } from 'primereact/button';
 import { Dropdown } from 'primereact/dropdown';
 import { Tag } from 'primereact/tag';
-import { REQUEST_KINDS, type RequestKind, type RubricSummary, type VersionStatus } from '@stavemark/shared';
+import {
+  REQUEST_KINDS,
+  type RequestKind,
+  type RubricSummary,
+  type VersionStatus,
+} from '@stavemark/shared';
 import { paths } from '@/config/paths';
 import '../rubrics.css';
 import { activeRoles, useCurrentUser } from '@/lib/auth';
@@ -17,7 +22,10 @@ import { ImportRubricButton } from '../components/ImportRubricButton';
 import { KIND_LABELS } from '../components/labels';
 import { VersionTag } from '../components/VersionTag';
 
-const kindOptions = [{ label: 'Every kind', value: 'all' }, ...REQUEST_KINDS.map((k) => ({ label: KIND_LABELS[k], value: k }))];
+const kindOptions = [
+  { label: 'Every kind', value: 'all' },
+  ...REQUEST_KINDS.map((k) => ({ label: KIND_LABELS[k], value: k })),
+];
 const statusOptions = [
   { label: 'Any state', value: 'all' },
   { label: 'Has a published version', value: 'published' },
@@ -31,8 +39,14 @@ export function RubricsPage() {
   const canEdit = activeRoles(me).some((r) => r === 'admin' || r === 'teacher');
   const [kind, setKind] = useState<RequestKind | 'all'>('all');
   const [status, setStatus] = useState<VersionStatus | 'all'>('all');
-  const [importError, setImportError] = useState<{ message: string; details: { path: string; message: string }[] } | null>(null);
-  const rubrics = useRubrics({ ...(kind !== 'all' ? { kind } : {}), ...(status !== 'all' ? { status } : {}) });
+  const [importError, setImportError] = useState<{
+    message: string;
+    details: { path: string; message: string }[];
+  } | null>(null);
+  const rubrics = useRubrics({
+    ...(kind !== 'all' ? { kind } : {}),
+    ...(status !== 'all' ? { status } : {}),
+  });
 
   const nameBody = (r: RubricSummary) => (
     <span className="sm-cell-stack">
@@ -53,7 +67,10 @@ export function RubricsPage() {
       <div className="sm-page-header">
         <div>
           <h1 id={`${id}-title`}>Rubrics</h1>
-          <p className="sm-page-subtitle">What is assessed in each kind of request, how much each criterion counts, and what each mark means.</p>
+          <p className="sm-page-subtitle">
+            What is assessed in each kind of request, how much each criterion counts, and what each
+            mark means.
+          </p>
         </div>
         {canEdit && (
           <span className="sm-row-actions">
@@ -65,7 +82,12 @@ export function RubricsPage() {
               }}
               onError={(message, details) => setImportError({ message, details })}
             />
-            <Button type="button" icon="pi pi-plus" label="New rubric" onClick={() => navigate(paths.rubricNew.href())} />
+            <Button
+              type="button"
+              icon="pi pi-plus"
+              label="New rubric"
+              onClick={() => navigate(paths.rubricNew.href())}
+            />
           </span>
         )}
       </div>
@@ -88,11 +110,21 @@ export function RubricsPage() {
       <div className="sm-toolbar" role="search">
         <div className="sm-field">
           <label htmlFor={`${id}-kind`}>Kind of request</label>
-          <Dropdown inputId={`${id}-kind`} value={kind} options={kindOptions} onChange={(e) => setKind(e.value as RequestKind | 'all')} />
+          <Dropdown
+            inputId={`${id}-kind`}
+            value={kind}
+            options={kindOptions}
+            onChange={(e) => setKind(e.value as RequestKind | 'all')}
+          />
         </div>
         <div className="sm-field">
           <label htmlFor={`${id}-status`}>State</label>
-          <Dropdown inputId={`${id}-status`} value={status} options={statusOptions} onChange={(e) => setStatus(e.value as VersionStatus | 'all')} />
+          <Dropdown
+            inputId={`${id}-status`}
+            value={status}
+            options={statusOptions}
+            onChange={(e) => setStatus(e.value as VersionStatus | 'all')}
+          />
         </div>
       </div>
 
@@ -103,7 +135,7 @@ export function RubricsPage() {
           dataKey="id"
           size="small"
           loading={rubrics.isFetching}
-          pt={{ table: { "aria-label": "Rubrics" } }}
+          pt={{ table: { 'aria-label': 'Rubrics' } }}
           emptyMessage={rubrics.isPending ? 'Loading…' : 'No rubric matches these filters.'}
           sortField="name"
           sortOrder={1}
@@ -111,9 +143,28 @@ export function RubricsPage() {
         >
           <Column field="name" header="Name" body={nameBody} sortable />
           <Column header="Used for" body={kindsBody} />
-          <Column header="Latest" body={(r: RubricSummary) => <VersionTag version={r.latest.version} status={r.latest.status} />} />
-          <Column header="In use" body={(r: RubricSummary) => (r.published ? `Version ${r.published.version}` : <span className="sm-muted">Not published yet</span>)} />
-          <Column header="Criteria" className="sm-num" headerClassName="sm-num" body={(r: RubricSummary) => r.latest.criteriaCount} />
+          <Column
+            header="Latest"
+            body={(r: RubricSummary) => (
+              <VersionTag version={r.latest.version} status={r.latest.status} />
+            )}
+          />
+          <Column
+            header="In use"
+            body={(r: RubricSummary) =>
+              r.published ? (
+                `Version ${r.published.version}`
+              ) : (
+                <span className="sm-muted">Not published yet</span>
+              )
+            }
+          />
+          <Column
+            header="Criteria"
+            className="sm-num"
+            headerClassName="sm-num"
+            body={(r: RubricSummary) => r.latest.criteriaCount}
+          />
         </DataTable>
       </div>
     </section>
