@@ -1,4 +1,4 @@
-import { Inject, Injectable, Logger, type OnApplicationShutdown } from '@nestjs/common';
+import { Inject, Injectable, Logger, type OnApplicationBootstrap, type OnApplicationShutdown } from '@nestjs/common';
 import PgBoss from 'pg-boss';
 import type { EntityManager } from 'typeorm';
 import { ENV } from '../config/config.module.js';
@@ -28,7 +28,7 @@ function inTransaction(em: EntityManager): PgBoss.Db {
  * PostgreSQL is down (health answers 503); the queue then starts on first use.
  */
 @Injectable()
-export class MailQueue implements OnApplicationShutdown {
+export class MailQueue implements OnApplicationBootstrap, OnApplicationShutdown {
   private readonly logger = new Logger('MailQueue');
   private readonly boss: PgBoss;
   private starting: Promise<void> | null = null;
@@ -44,6 +44,16 @@ export class MailQueue implements OnApplicationShutdown {
       schedule: false,
     });
     this.boss.on('error', (err) => this.logger.warn(`job queue: ${err.message}`));
+  }
+
+  /**
+   * Starts the queue before the server takes requests, so no transaction races pg-boss's own
+   * start-up (schema, queue partition) for locks. With the database down the server still starts.
+   */
+  async onApplicationBootstrap(): Promise<void> {
+    await this.ensureStarted().catch((err: unknown) => {
+      this.logger.warn(`job queue not started yet: ${err instanceof Error ? err.message : String(err)}`);
+    });
   }
 
   /** Starts pg-boss (creating its schema on a new database) and the mail queue, once. */

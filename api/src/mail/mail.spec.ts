@@ -131,14 +131,23 @@ describe('outbound mail: written with the change, sent after commit, retried wit
     }
     expect(row).toMatchObject({ status: 'retrying', attempts: 1 });
     expect(row.lastError).toMatch(/ECONNREFUSED|connect/i);
-    const [job] = (await t.db.query(
-      `SELECT state, retry_count, start_after > now() AS later FROM pgboss.job WHERE data->>'mailId' = $1`,
-      [id],
-    )) as {
-      state: string;
-      retry_count: number;
-      later: boolean;
-    }[];
+    // The row is marked first, then the job is failed back to the queue: wait for both.
+    const jobOf = async () =>
+      (
+        (await t.db.query(
+          `SELECT state, retry_count, start_after > now() AS later FROM pgboss.job WHERE data->>'mailId' = $1`,
+          [id],
+        )) as {
+          state: string;
+          retry_count: number;
+          later: boolean;
+        }[]
+      )[0];
+    let job = await jobOf();
+    while (job?.state !== 'retry' && Date.now() < deadline) {
+      await new Promise((r) => setTimeout(r, 50));
+      job = await jobOf();
+    }
     // pg-boss counts the retry when it fetches the job again; the next try waits (back-off).
     expect(job).toMatchObject({ state: 'retry', retry_count: 0, later: true });
 
