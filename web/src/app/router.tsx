@@ -84,31 +84,6 @@ export const routes: RouteObject[] = [
           return { element: <RequireAuth roles={paths.outbox.roles}><OutboxPage /></RequireAuth> };
         },
       },
-      // The marking desk: its own chunks (no chart library), examiners only.
-      ...(
-        [
-          [paths.marking, () => import('@/features/marking/pages/MarkingPage').then((m) => <m.MarkingPage />)],
-          [paths.markingDesk, () => import('@/features/marking/pages/DeskPage').then((m) => <m.DeskPage />)],
-        ] as const
-      ).map(
-        ([route, load]): RouteObject => ({
-          path: route.path,
-          lazy: async () => ({ element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth> }),
-        }),
-      ),
-      // Sittings: each page its own chunk, guarded by the roles in paths.
-      ...(
-        [
-          [paths.sittings, () => import('@/features/sittings/pages/SittingsPage').then((m) => <m.SittingsPage />)],
-          [paths.sitting, () => import('@/features/sittings/pages/SittingPage').then((m) => <m.SittingPage />)],
-          [paths.daySchedule, () => import('@/features/sittings/pages/DaySchedulePage').then((m) => <m.DaySchedulePage />)],
-        ] as const
-      ).map(
-        ([route, load]): RouteObject => ({
-          path: route.path,
-          lazy: async () => ({ element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth> }),
-        }),
-      ),
       // Rubrics and requirement lists: each page its own chunk, guarded by the roles in paths.
       ...(
         [

@@ -8,6 +8,19 @@ export const paths = {
   today: { path: '/', href: () => '/', roles: ROLES },
   signIn: { path: '/sign-in', href: () => '/sign-in', roles: ROLES },
   people: { path: '/people', href: () => '/people', roles: ['admin'] },
+  // Classes (issue 4): a teacher's own, all for an admin; the Outbox outside production.
+  classes: { path: '/classes', href: () => '/classes', roles: ['admin', 'teacher'] },
+  classDetail: {
+    path: '/classes/:classId',
+    href: (classId: string) => `/classes/${encodeURIComponent(classId)}`,
+    roles: ['admin', 'teacher'],
+  },
+  outbox: { path: '/outbox', href: () => '/outbox', roles: ['admin'] },
+  // Public pages behind e-mailed links (the API's invitations/link-tokens.ts names the same paths).
+  accountWelcome: { path: '/account/welcome', href: () => '/account/welcome', roles: ROLES },
+  resetPassword: { path: '/account/reset-password', href: () => '/account/reset-password', roles: ROLES },
+  forgotPassword: { path: '/account/forgot-password', href: () => '/account/forgot-password', roles: ROLES },
+  consent: { path: '/account/consent', href: () => '/account/consent', roles: ROLES },
   // Rubrics and requirement lists: teachers and admins edit, examiners and students read.
   rubrics: { path: '/rubrics', href: () => '/rubrics', roles: ROLES },
   rubricNew: { path: '/rubrics/new', href: () => '/rubrics/new', roles: ['admin', 'teacher'] },
@@ -38,19 +51,7 @@ export const paths = {
     path: '/requirement-lists/:listId/edit',
     href: (listId: string) => `/requirement-lists/${encodeURIComponent(listId)}/edit`,
     roles: ['admin', 'teacher'],
-  },  // Classes (issue 4): a teacher's own, all for an admin; the Outbox outside production.
-  classes: { path: '/classes', href: () => '/classes', roles: ['admin', 'teacher'] },
-  classDetail: {
-    path: '/classes/:classId',
-    href: (classId: string) => `/classes/${encodeURIComponent(classId)}`,
-    roles: ['admin', 'teacher'],
   },
-  outbox: { path: '/outbox', href: () => '/outbox', roles: ['admin'] },
-  // Public pages behind e-mailed links (the API's invitations/link-tokens.ts names the same paths).
-  accountWelcome: { path: '/account/welcome', href: () => '/account/welcome', roles: ROLES },
-  resetPassword: { path: '/account/reset-password', href: () => '/account/reset-password', roles: ROLES },
-  forgotPassword: { path: '/account/forgot-password', href: () => '/account/forgot-password', roles: ROLES },
-  consent: { path: '/account/consent', href: () => '/account/consent', roles: ROLES },
   // The marking desk (issue 6): examiners only, their own slots.
   marking: { path: '/marking', href: () => '/marking', roles: ['examiner'] },
   markingDesk: {
