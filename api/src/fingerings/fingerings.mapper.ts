@@ -3,7 +3,9 @@ import { toPersonRef } from '../rubrics/rubrics.mapper.js';
 import type { StudentFingering } from './entities/student-fingering.entity.js';
 
 /** kind|key|mode|hand|inversion: one approved fingering's identity across its revisions. */
-export function requestIdentityOf(f: Pick<StudentFingering, 'kind' | 'key' | 'mode' | 'hand' | 'inversion'>): string {
+export function requestIdentityOf(
+  f: Pick<StudentFingering, 'kind' | 'key' | 'mode' | 'hand' | 'inversion'>,
+): string {
   return [f.kind, f.key, f.mode ?? '', f.hand, f.inversion ?? ''].join('|');
 }
 

@@ -1,7 +1,14 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, type EntityManager, Repository } from 'typeorm';
-import type { CurrentFingering, Hand, Inversion, Mode, RequestKind, StudentFingeringInput } from '@stavemark/shared';
+import type {
+  CurrentFingering,
+  Hand,
+  Inversion,
+  Mode,
+  RequestKind,
+  StudentFingeringInput,
+} from '@stavemark/shared';
 import { AuditService } from '../audit/audit.service.js';
 import { conflict, notFound } from '../common/errors.js';
 import { RequestContext } from '../common/request-context.js';
@@ -46,7 +53,12 @@ export class FingeringsService {
         .getExists();
       if (teaches) return student;
     }
-    if (mode === 'read' && student.membershipId !== null && student.membershipId === caller.membershipId) return student;
+    if (
+      mode === 'read' &&
+      student.membershipId !== null &&
+      student.membershipId === caller.membershipId
+    )
+      return student;
     throw notFound('student');
   }
 
@@ -63,7 +75,10 @@ export class FingeringsService {
     try {
       await this.db.transaction(async (em) => {
         const repo = this.fingerings.withManager(em);
-        const latest = await repo.findOne({ where: { studentId, request }, order: { revision: 'DESC' } });
+        const latest = await repo.findOne({
+          where: { studentId, request },
+          order: { revision: 'DESC' },
+        });
         const same =
           latest &&
           latest.octaves === input.octaves &&
@@ -93,14 +108,31 @@ export class FingeringsService {
             action: 'fingering.recorded',
             entity: 'student_fingering',
             entityId: row.id,
-            before: latest ? { revision: latest.revision, octaves: latest.octaves, direction: latest.direction, digits: latest.digits } : null,
-            after: { studentId, request, revision: row.revision, octaves: row.octaves, direction: row.direction, digits: row.digits },
+            before: latest
+              ? {
+                  revision: latest.revision,
+                  octaves: latest.octaves,
+                  direction: latest.direction,
+                  digits: latest.digits,
+                }
+              : null,
+            after: {
+              studentId,
+              request,
+              revision: row.revision,
+              octaves: row.octaves,
+              direction: row.direction,
+              digits: row.digits,
+            },
           },
           em,
         );
       });
     } catch (err) {
-      if (isUniqueViolation(err)) throw conflict('Someone else changed this fingering at the same moment; reload and try again.');
+      if (isUniqueViolation(err))
+        throw conflict(
+          'Someone else changed this fingering at the same moment; reload and try again.',
+        );
       throw err;
     }
     const current = await this.currentFor(studentId, input);
@@ -114,11 +146,20 @@ export class FingeringsService {
    */
   async currentFor(
     studentId: string,
-    r: { kind: RequestKind; key: string; mode: Mode | null; hand: Hand; inversion: Inversion | null },
+    r: {
+      kind: RequestKind;
+      key: string;
+      mode: Mode | null;
+      hand: Hand;
+      inversion: Inversion | null;
+    },
     em?: EntityManager,
   ): Promise<CurrentFingering | null> {
     const repo = em ? this.fingerings.withManager(em) : this.fingerings;
-    const rows = await repo.find({ where: { studentId, request: requestIdentityOf(r) }, relations: { setBy: true } });
+    const rows = await repo.find({
+      where: { studentId, request: requestIdentityOf(r) },
+      relations: { setBy: true },
+    });
     return toCurrentFingerings(rows)[0] ?? null;
   }
 }

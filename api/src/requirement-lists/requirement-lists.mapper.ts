@@ -33,7 +33,13 @@ export function toLineView(l: RequirementLineRow): RequirementLineView {
     difficultyWeight: l.difficultyWeight,
     ...(l.titles ? { titles: l.titles } : {}),
     ...(l.durationSeconds !== null ? { durationSeconds: l.durationSeconds } : {}),
-    rubric: { id: rv.id, rubricId: rv.rubricId, name: rv.name, version: rv.version, status: rv.status },
+    rubric: {
+      id: rv.id,
+      rubricId: rv.rubricId,
+      name: rv.name,
+      version: rv.version,
+      status: rv.status,
+    },
   };
 }
 
@@ -66,7 +72,10 @@ export function toListVersionView(v: RequirementListVersion): RequirementListVer
 }
 
 /** `versions`: those the caller may see, newest first (at least one). */
-export function toListSummary(l: RequirementList, versions: RequirementListVersion[]): RequirementListSummary {
+export function toListSummary(
+  l: RequirementList,
+  versions: RequirementListVersion[],
+): RequirementListSummary {
   const latest = versions[0];
   if (!latest) throw new Error('requirement list summary without a visible version');
   const published = versions.find((v) => v.status === 'published');
@@ -81,12 +90,19 @@ export function toListSummary(l: RequirementList, versions: RequirementListVersi
   };
 }
 
-export function toListDetail(l: RequirementList, versions: RequirementListVersion[]): RequirementListDetail {
+export function toListDetail(
+  l: RequirementList,
+  versions: RequirementListVersion[],
+): RequirementListDetail {
   return { ...toListSummary(l, versions), versions: versions.map(toListVersionSummary) };
 }
 
 /** Rows for the body's lines; a line keeps its id when it names one of this draft's lines. */
-export function toLineRows(listVersionId: string, body: Pick<RequirementListVersionBody, 'lines'>, keepIds: ReadonlySet<string> = new Set()): Partial<RequirementLineRow>[] {
+export function toLineRows(
+  listVersionId: string,
+  body: Pick<RequirementListVersionBody, 'lines'>,
+  keepIds: ReadonlySet<string> = new Set(),
+): Partial<RequirementLineRow>[] {
   return body.lines.map((l, position) => ({
     ...(l.id && keepIds.has(l.id) ? { id: l.id } : {}),
     listVersionId,
@@ -111,4 +127,3 @@ export function toLineRows(listVersionId: string, body: Pick<RequirementListVers
     durationSeconds: l.durationSeconds ?? null,
   }));
 }
-

@@ -1,5 +1,11 @@
 // Reading and writing rubric files (rubrics/README.md documents the format).
-import { RUBRIC_FILE_FORMAT, RUBRIC_FILE_FORMAT_VERSION, rubricFileSchema, type RubricFile, type RubricVersionView } from '@stavemark/shared';
+import {
+  RUBRIC_FILE_FORMAT,
+  RUBRIC_FILE_FORMAT_VERSION,
+  rubricFileSchema,
+  type RubricFile,
+  type RubricVersionView,
+} from '@stavemark/shared';
 import { z } from 'zod';
 import { invalid } from '../common/errors.js';
 import { issuesToDetails } from '../common/validation.js';
@@ -24,7 +30,9 @@ export function parseRubricFile(content: Buffer): RubricFile {
   try {
     text = new TextDecoder('utf-8', { fatal: true }).decode(content);
   } catch {
-    throw invalid('The file is not text (UTF-8): choose a rubric file exported as JSON.', [{ path: 'file', message: 'not UTF-8 text' }]);
+    throw invalid('The file is not text (UTF-8): choose a rubric file exported as JSON.', [
+      { path: 'file', message: 'not UTF-8 text' },
+    ]);
   }
   text = text.replace(/^\uFEFF/, '');
   if (text.trim() === '') throw invalid('The file is empty.', [{ path: 'file', message: 'empty' }]);
@@ -34,20 +42,34 @@ export function parseRubricFile(content: Buffer): RubricFile {
   } catch (err) {
     const reason = err instanceof Error ? err.message : String(err);
     const where = locate(text, reason);
-    throw invalid(`The file is not valid JSON${where ? ` (${where})` : ''}: ${reason}`, [{ path: 'file', message: where ?? reason }]);
+    throw invalid(`The file is not valid JSON${where ? ` (${where})` : ''}: ${reason}`, [
+      { path: 'file', message: where ?? reason },
+    ]);
   }
   const result = rubricFileSchema.safeParse(data);
   if (!result.success) {
-    const details = issuesToDetails(result.error).map((d) => (d.path === '(body)' ? { ...d, path: '(file)' } : d));
+    const details = issuesToDetails(result.error).map((d) =>
+      d.path === '(body)' ? { ...d, path: '(file)' } : d,
+    );
     const first = details[0]!;
-    const more = details.length > 1 ? ` (and ${details.length - 1} more problem${details.length > 2 ? 's' : ''})` : '';
-    throw invalid(`The file is not a valid rubric: ${first.path}: ${first.message}${more}`, details);
+    const more =
+      details.length > 1
+        ? ` (and ${details.length - 1} more problem${details.length > 2 ? 's' : ''})`
+        : '';
+    throw invalid(
+      `The file is not a valid rubric: ${first.path}: ${first.message}${more}`,
+      details,
+    );
   }
   return result.data;
 }
 
 /** The file a version is exported as; importing it gives back the same name, kinds and criteria. */
-export function toRubricFile(v: RubricVersionView, starterKey: string | null, exportedAt: Date): RubricFile {
+export function toRubricFile(
+  v: RubricVersionView,
+  starterKey: string | null,
+  exportedAt: Date,
+): RubricFile {
   return {
     format: RUBRIC_FILE_FORMAT,
     formatVersion: RUBRIC_FILE_FORMAT_VERSION,

@@ -1,6 +1,22 @@
-import { Controller, Get, HttpCode, Post, Put, Res, UploadedFile, UseInterceptors } from '@nestjs/common';
+import {
+  Controller,
+  Get,
+  HttpCode,
+  Post,
+  Put,
+  Res,
+  UploadedFile,
+  UseInterceptors,
+} from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
-import { ApiBody, ApiConflictResponse, ApiConsumes, ApiPayloadTooLargeResponse, ApiProduces, ApiTags } from '@nestjs/swagger';
+import {
+  ApiBody,
+  ApiConflictResponse,
+  ApiConsumes,
+  ApiPayloadTooLargeResponse,
+  ApiProduces,
+  ApiTags,
+} from '@nestjs/swagger';
 import type { Response } from 'express';
 import { memoryStorage } from 'multer';
 import {
@@ -46,11 +62,25 @@ export class RubricsController {
     roles: [...EDITORS],
   })
   @ApiConsumes('multipart/form-data')
-  @ApiBody({ schema: { type: 'object', required: ['file'], properties: { file: { type: 'string', format: 'binary' } } } })
+  @ApiBody({
+    schema: {
+      type: 'object',
+      required: ['file'],
+      properties: { file: { type: 'string', format: 'binary' } },
+    },
+  })
   @ApiPayloadTooLargeResponse({ description: 'The file is larger than the limit.' })
-  @UseInterceptors(FileInterceptor('file', { storage: memoryStorage(), limits: { fileSize: RUBRIC_FILE_MAX_BYTES, files: 1 } }))
+  @UseInterceptors(
+    FileInterceptor('file', {
+      storage: memoryStorage(),
+      limits: { fileSize: RUBRIC_FILE_MAX_BYTES, files: 1 },
+    }),
+  )
   import(@UploadedFile() file: Express.Multer.File | undefined): Promise<RubricVersionView> {
-    if (!file) throw invalid('Choose a rubric file to import (form field "file").', [{ path: 'file', message: 'missing' }]);
+    if (!file)
+      throw invalid('Choose a rubric file to import (form field "file").', [
+        { path: 'file', message: 'missing' },
+      ]);
     return this.rubrics.import(file.buffer);
   }
 
@@ -61,9 +91,16 @@ export class RubricsController {
   }
 
   @Post(':id/versions')
-  @Route({ summary: 'Edit a published rubric: save the edit as a new draft version', roles: [...EDITORS], owned: true })
+  @Route({
+    summary: 'Edit a published rubric: save the edit as a new draft version',
+    roles: [...EDITORS],
+    owned: true,
+  })
   @ApiConflictResponse({ description: 'The rubric already has a draft version.' })
-  createVersion(@IdParam() id: string, @ValidBody(rubricBodySchema) body: RubricBody): Promise<RubricVersionView> {
+  createVersion(
+    @IdParam() id: string,
+    @ValidBody(rubricBodySchema) body: RubricBody,
+  ): Promise<RubricVersionView> {
     return this.rubrics.createVersion(id, body);
   }
 }
@@ -74,7 +111,11 @@ export class RubricVersionsController {
   constructor(private readonly rubrics: RubricsService) {}
 
   @Get(':id')
-  @Route({ summary: 'One rubric version with its criteria and level descriptors', description: READERS_NOTE, owned: true })
+  @Route({
+    summary: 'One rubric version with its criteria and level descriptors',
+    description: READERS_NOTE,
+    owned: true,
+  })
   get(@IdParam() id: string): Promise<RubricVersionView> {
     return this.rubrics.getVersion(id);
   }
@@ -82,22 +123,36 @@ export class RubricVersionsController {
   @Put(':id')
   @Route({ summary: 'Replace the content of a draft version', roles: [...EDITORS], owned: true })
   @ApiConflictResponse({ description: 'The version is published and cannot change.' })
-  update(@IdParam() id: string, @ValidBody(rubricBodySchema) body: RubricBody): Promise<RubricVersionView> {
+  update(
+    @IdParam() id: string,
+    @ValidBody(rubricBodySchema) body: RubricBody,
+  ): Promise<RubricVersionView> {
     return this.rubrics.updateVersion(id, body);
   }
 
   @Post(':id/publish')
   @HttpCode(200)
-  @Route({ summary: 'Publish a draft version; from then on it never changes', roles: [...EDITORS], owned: true })
+  @Route({
+    summary: 'Publish a draft version; from then on it never changes',
+    roles: [...EDITORS],
+    owned: true,
+  })
   @ApiConflictResponse({ description: 'Already published.' })
   publish(@IdParam() id: string): Promise<RubricVersionView> {
     return this.rubrics.publish(id);
   }
 
   @Get(':id/export')
-  @Route({ summary: 'Download a version as a rubric file (JSON)', description: READERS_NOTE, owned: true })
+  @Route({
+    summary: 'Download a version as a rubric file (JSON)',
+    description: READERS_NOTE,
+    owned: true,
+  })
   @ApiProduces('application/json')
-  async export(@IdParam() id: string, @Res({ passthrough: true }) res: Response): Promise<RubricFile> {
+  async export(
+    @IdParam() id: string,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<RubricFile> {
     const { fileName, file } = await this.rubrics.export(id);
     res.setHeader('Content-Disposition', `attachment; filename="${fileName}"`);
     return file;

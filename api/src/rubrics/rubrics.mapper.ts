@@ -1,4 +1,12 @@
-import type { PersonRef, RubricBody, RubricCriterion, RubricDetail, RubricSummary, RubricVersionSummary, RubricVersionView } from '@stavemark/shared';
+import type {
+  PersonRef,
+  RubricBody,
+  RubricCriterion,
+  RubricDetail,
+  RubricSummary,
+  RubricVersionSummary,
+  RubricVersionView,
+} from '@stavemark/shared';
 import type { Person } from '../users/entities/person.entity.js';
 import type { RubricCriterionRow } from './entities/rubric-criterion.entity.js';
 import type { RubricVersion } from './entities/rubric-version.entity.js';
@@ -65,7 +73,10 @@ export function toRubricDetail(r: Rubric, versions: RubricVersion[]): RubricDeta
 }
 
 /** Rows for a version's criteria, in the order given. */
-export function toCriterionRows(rubricVersionId: string, body: Pick<RubricBody, 'criteria'>): Partial<RubricCriterionRow>[] {
+export function toCriterionRows(
+  rubricVersionId: string,
+  body: Pick<RubricBody, 'criteria'>,
+): Partial<RubricCriterionRow>[] {
   return body.criteria.map((c, position) => ({
     rubricVersionId,
     position,

@@ -1,7 +1,14 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, type EntityManager, In, Repository } from 'typeorm';
-import type { ListRubricsQuery, RubricBody, RubricDetail, RubricFile, RubricSummary, RubricVersionView } from '@stavemark/shared';
+import type {
+  ListRubricsQuery,
+  RubricBody,
+  RubricDetail,
+  RubricFile,
+  RubricSummary,
+  RubricVersionView,
+} from '@stavemark/shared';
 import { AuditService } from '../audit/audit.service.js';
 import { now } from '../common/clock.js';
 import { conflict, DomainError, ErrorCode } from '../common/errors.js';
@@ -11,7 +18,13 @@ import { RubricCriterionRow } from './entities/rubric-criterion.entity.js';
 import { RubricVersion } from './entities/rubric-version.entity.js';
 import { Rubric } from './entities/rubric.entity.js';
 import { parseRubricFile, toRubricFile } from './rubric-file.js';
-import { toCriterion, toCriterionRows, toRubricDetail, toRubricSummary, toVersionView } from './rubrics.mapper.js';
+import {
+  toCriterion,
+  toCriterionRows,
+  toRubricDetail,
+  toRubricSummary,
+  toVersionView,
+} from './rubrics.mapper.js';
 import { callerSeesDrafts, isUniqueViolation, slug } from './versioning.js';
 
 const VERSION_RELATIONS = { criteria: true, createdBy: true, publishedBy: true } as const;
@@ -33,7 +46,9 @@ export class RubricsService {
   }
 
   /** Versions the caller may see, grouped by rubric, newest first. */
-  private async visibleVersions(where: { rubricId?: string } = {}): Promise<Map<string, RubricVersion[]>> {
+  private async visibleVersions(
+    where: { rubricId?: string } = {},
+  ): Promise<Map<string, RubricVersion[]>> {
     const rows = await this.versions.find({
       where: { ...where, ...(callerSeesDrafts() ? {} : { status: 'published' as const }) },
       relations: { criteria: true },
@@ -51,7 +66,13 @@ export class RubricsService {
     return rubrics
       .map((r) => toRubricSummary(r, byRubric.get(r.id)!))
       .filter((s) => (q.kind ? s.kinds.includes(q.kind) : true))
-      .filter((s) => (q.status === 'published' ? s.published !== null : q.status === 'draft' ? s.latest.status === 'draft' : true))
+      .filter((s) =>
+        q.status === 'published'
+          ? s.published !== null
+          : q.status === 'draft'
+            ? s.latest.status === 'draft'
+            : true,
+      )
       .sort((a, b) => a.name.localeCompare(b.name, 'en') || a.id.localeCompare(b.id));
   }
 
@@ -71,12 +92,23 @@ export class RubricsService {
     return toVersionView(v);
   }
 
-  async create(body: RubricBody, options: { starterKey?: string; action?: string } = {}): Promise<RubricVersionView> {
+  async create(
+    body: RubricBody,
+    options: { starterKey?: string; action?: string } = {},
+  ): Promise<RubricVersionView> {
     const id = await this.db.transaction(async (em) => {
       const rubrics = this.rubrics.withManager(em);
       const rubric = await rubrics.save(rubrics.create({ starterKey: options.starterKey ?? null }));
       const v = await this.insertVersion(em, rubric.id, 1, body);
-      await this.audit.record({ action: options.action ?? 'rubric.created', entity: 'rubric_version', entityId: v.id, after: { rubricId: rubric.id, version: 1, ...body } }, em);
+      await this.audit.record(
+        {
+          action: options.action ?? 'rubric.created',
+          entity: 'rubric_version',
+          entityId: v.id,
+          after: { rubricId: rubric.id, version: 1, ...body },
+        },
+        em,
+      );
       return v.id;
     });
     return this.getVersion(id);
@@ -86,17 +118,30 @@ export class RubricsService {
   async createVersion(rubricId: string, body: RubricBody): Promise<RubricVersionView> {
     const id = await this.db.transaction(async (em) => {
       // Locking the rubric row serialises version numbering for this rubric.
-      await this.rubrics.withManager(em).getOne({ where: { id: rubricId }, lock: { mode: 'pessimistic_write' } });
-      const existing = await this.versions.withManager(em).find({ where: { rubricId }, order: { version: 'DESC' } });
+      await this.rubrics
+        .withManager(em)
+        .getOne({ where: { id: rubricId }, lock: { mode: 'pessimistic_write' } });
+      const existing = await this.versions
+        .withManager(em)
+        .find({ where: { rubricId }, order: { version: 'DESC' } });
       const draft = existing.find((v) => v.status === 'draft');
       if (draft) {
-        throw conflict(`Version ${draft.version} of this rubric is still a draft: edit that draft, or publish it before starting another.`, [
-          { path: 'rubricId', message: `draft version ${draft.version} exists (${draft.id})` },
-        ]);
+        throw conflict(
+          `Version ${draft.version} of this rubric is still a draft: edit that draft, or publish it before starting another.`,
+          [{ path: 'rubricId', message: `draft version ${draft.version} exists (${draft.id})` }],
+        );
       }
       const next = (existing[0]?.version ?? 0) + 1;
       const v = await this.insertVersion(em, rubricId, next, body);
-      await this.audit.record({ action: 'rubric.version_created', entity: 'rubric_version', entityId: v.id, after: { rubricId, version: next, ...body } }, em);
+      await this.audit.record(
+        {
+          action: 'rubric.version_created',
+          entity: 'rubric_version',
+          entityId: v.id,
+          after: { rubricId, version: next, ...body },
+        },
+        em,
+      );
       return v.id;
     });
     return this.getVersion(id);
@@ -107,7 +152,10 @@ export class RubricsService {
       const versions = this.versions.withManager(em);
       const v = await versions.getOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
       this.assertDraft(v);
-      const oldCriteria = await em.find(RubricCriterionRow, { where: { rubricVersionId: id }, order: { position: 'ASC' } });
+      const oldCriteria = await em.find(RubricCriterionRow, {
+        where: { rubricVersionId: id },
+        order: { position: 'ASC' },
+      });
       const before = { name: v.name, kinds: v.kinds, criteria: oldCriteria.map(toCriterion) };
       v.name = body.name;
       v.kinds = body.kinds;
@@ -115,7 +163,13 @@ export class RubricsService {
       await em.delete(RubricCriterionRow, { rubricVersionId: id });
       await em.save(RubricCriterionRow, toCriterionRows(id, body));
       await this.audit.record(
-        { action: 'rubric.draft_updated', entity: 'rubric_version', entityId: id, before, after: body },
+        {
+          action: 'rubric.draft_updated',
+          entity: 'rubric_version',
+          entityId: id,
+          before,
+          after: body,
+        },
         em,
       );
     });
@@ -131,7 +185,15 @@ export class RubricsService {
       v.publishedAt = now();
       v.publishedByPersonId = RequestContext.requireCaller().personId;
       await versions.save(v);
-      await this.audit.record({ action: 'rubric.published', entity: 'rubric_version', entityId: id, after: { rubricId: v.rubricId, version: v.version } }, em);
+      await this.audit.record(
+        {
+          action: 'rubric.published',
+          entity: 'rubric_version',
+          entityId: id,
+          after: { rubricId: v.rubricId, version: v.version },
+        },
+        em,
+      );
     });
     return this.getVersion(id);
   }
@@ -139,7 +201,10 @@ export class RubricsService {
   async export(id: string): Promise<{ fileName: string; file: RubricFile }> {
     const view = await this.getVersion(id);
     const rubric = await this.rubrics.getById(view.rubricId);
-    return { fileName: `${slug(view.name)}-v${view.version}.rubric.json`, file: toRubricFile(view, rubric.starterKey, now()) };
+    return {
+      fileName: `${slug(view.name)}-v${view.version}.rubric.json`,
+      file: toRubricFile(view, rubric.starterKey, now()),
+    };
   }
 
   /** An imported file always becomes a new rubric with one draft version, whatever it was before. */
@@ -158,16 +223,31 @@ export class RubricsService {
     }
   }
 
-  private async insertVersion(em: EntityManager, rubricId: string, version: number, body: RubricBody): Promise<RubricVersion> {
+  private async insertVersion(
+    em: EntityManager,
+    rubricId: string,
+    version: number,
+    body: RubricBody,
+  ): Promise<RubricVersion> {
     const versions = this.versions.withManager(em);
     try {
       const v = await versions.save(
-        versions.create({ rubricId, version, status: 'draft', name: body.name, kinds: body.kinds, createdByPersonId: RequestContext.caller()?.personId ?? null }),
+        versions.create({
+          rubricId,
+          version,
+          status: 'draft',
+          name: body.name,
+          kinds: body.kinds,
+          createdByPersonId: RequestContext.caller()?.personId ?? null,
+        }),
       );
       await em.save(RubricCriterionRow, toCriterionRows(v.id, body));
       return v;
     } catch (err) {
-      if (isUniqueViolation(err)) throw conflict('Someone else changed this rubric at the same moment; reload it and try again.');
+      if (isUniqueViolation(err))
+        throw conflict(
+          'Someone else changed this rubric at the same moment; reload it and try again.',
+        );
       throw err;
     }
   }

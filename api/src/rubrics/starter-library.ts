@@ -5,7 +5,13 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { EntityManager } from 'typeorm';
 import { z } from 'zod';
-import { drawRequests, requirementListVersionBodySchema, rubricFileSchema, type RequirementListVersionBody, type RubricFile } from '@stavemark/shared';
+import {
+  drawRequests,
+  requirementListVersionBodySchema,
+  rubricFileSchema,
+  type RequirementListVersionBody,
+  type RubricFile,
+} from '@stavemark/shared';
 import { now } from '../common/clock.js';
 import { ScopedRepository } from '../common/scoped-repository.js';
 import { issuesToDetails } from '../common/validation.js';
@@ -58,7 +64,10 @@ function fail(file: string, error: z.ZodError): never {
 }
 
 /** Reads and validates every starter file; a broken file stops the seed with its name and path. */
-export function readStarterLibrary(dir = STARTER_DIR): { rubrics: StarterRubric[]; lists: StarterList[] } {
+export function readStarterLibrary(dir = STARTER_DIR): {
+  rubrics: StarterRubric[];
+  lists: StarterList[];
+} {
   const rubrics = readdirSync(dir)
     .filter((f) => f.endsWith('.rubric.json'))
     .sort()
@@ -72,10 +81,15 @@ export function readStarterLibrary(dir = STARTER_DIR): { rubrics: StarterRubric[
     .filter((f) => f.endsWith('.list.json'))
     .sort()
     .map((f) => {
-      const raw = starterListFileSchema.safeParse(JSON.parse(readFileSync(join(listDir, f), 'utf8')));
+      const raw = starterListFileSchema.safeParse(
+        JSON.parse(readFileSync(join(listDir, f), 'utf8')),
+      );
       if (!raw.success) fail(f, raw.error);
       const lines = raw.data.list.lines.map(({ rubric, ...line }) => {
-        if (!rubrics.some((r) => r.key === rubric)) throw new Error(`Starter library: ${f} names rubric "${rubric}", which has no ${rubric}.rubric.json`);
+        if (!rubrics.some((r) => r.key === rubric))
+          throw new Error(
+            `Starter library: ${f} names rubric "${rubric}", which has no ${rubric}.rubric.json`,
+          );
         return { ...line, rubricVersionId: rubric };
       });
       const body = requirementListVersionBodySchema.safeParse({ ...raw.data.list, lines });
@@ -89,9 +103,15 @@ export function readStarterLibrary(dir = STARTER_DIR): { rubrics: StarterRubric[
  * Loads the starter library into one organisation as published version 1 of each rubric and
  * list. Idempotent: an entry already there (by starter key) is left alone, edits included.
  */
-export async function seedStarterLibrary(em: EntityManager, organisationId: string, dir = STARTER_DIR): Promise<{ rubrics: number; lists: number }> {
-  const scoped = <T extends { id: string; organisationId: string }>(target: new () => T, what: string) =>
-    new ScopedRepository<T>(em.getRepository<T>(target), what, () => organisationId);
+export async function seedStarterLibrary(
+  em: EntityManager,
+  organisationId: string,
+  dir = STARTER_DIR,
+): Promise<{ rubrics: number; lists: number }> {
+  const scoped = <T extends { id: string; organisationId: string }>(
+    target: new () => T,
+    what: string,
+  ) => new ScopedRepository<T>(em.getRepository<T>(target), what, () => organisationId);
   const rubrics = scoped(Rubric, 'rubric');
   const versions = scoped(RubricVersion, 'rubric version');
   const lists = scoped(RequirementList, 'requirement list');
@@ -104,13 +124,25 @@ export async function seedStarterLibrary(em: EntityManager, organisationId: stri
   for (const { key, file } of library.rubrics) {
     const existing = await rubrics.findOne({ where: { starterKey: key } });
     if (existing) {
-      const published = await versions.findOne({ where: { rubricId: existing.id, status: 'published' }, order: { version: 'DESC' } });
+      const published = await versions.findOne({
+        where: { rubricId: existing.id, status: 'published' },
+        order: { version: 'DESC' },
+      });
       if (published) versionIdByKey.set(key, published.id);
       continue;
     }
     const rubric = await rubrics.save(rubrics.create({ starterKey: key }));
     const v = await versions.save(
-      versions.create({ rubricId: rubric.id, version: 1, status: 'published', name: file.rubric.name, kinds: file.rubric.kinds, publishedAt, createdByPersonId: null, publishedByPersonId: null }),
+      versions.create({
+        rubricId: rubric.id,
+        version: 1,
+        status: 'published',
+        name: file.rubric.name,
+        kinds: file.rubric.kinds,
+        publishedAt,
+        createdByPersonId: null,
+        publishedByPersonId: null,
+      }),
     );
     await em.save(RubricCriterionRow, toCriterionRows(v.id, file.rubric));
     versionIdByKey.set(key, v.id);
@@ -121,7 +153,14 @@ export async function seedStarterLibrary(em: EntityManager, organisationId: stri
     if (await lists.findOne({ where: { starterKey: key } })) continue;
     // A teacher may have replaced a starter rubric's published version; then the list is not added.
     if (body.lines.some((l) => !versionIdByKey.has(l.rubricVersionId))) continue;
-    const resolved = { ...body, lines: body.lines.map((l, i) => ({ ...l, id: `line-${i}`, rubricVersionId: versionIdByKey.get(l.rubricVersionId)! })) };
+    const resolved = {
+      ...body,
+      lines: body.lines.map((l, i) => ({
+        ...l,
+        id: `line-${i}`,
+        rubricVersionId: versionIdByKey.get(l.rubricVersionId)!,
+      })),
+    };
     drawRequests(resolved, resolved.selectionRule, `starter-${key}`); // throws if the rule cannot be honoured
     const list = await lists.save(lists.create({ starterKey: key }));
     const v = await listVersions.save(

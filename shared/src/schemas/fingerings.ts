@@ -1,7 +1,16 @@
 // A student's approved fingering (issue 3 §4): body and views. Checked with validateFingering, so
 // the API and the web form refuse the same things with the same messages.
 import { z } from 'zod';
-import { COUNTED_KINDS, isInvertibleKind, isModalKind, type Direction, type Hand, type Inversion, type Mode, type RequestKind } from '../music/domain.js';
+import {
+  COUNTED_KINDS,
+  isInvertibleKind,
+  isModalKind,
+  type Direction,
+  type Hand,
+  type Inversion,
+  type Mode,
+  type RequestKind,
+} from '../music/domain.js';
 import { validateFingering } from '../music/fingering.js';
 import { isKeyName, normaliseKeyName } from '../music/keys.js';
 import { MAX_OCTAVES } from '../music/notes.js';
@@ -13,7 +22,10 @@ export const handSchema = z.enum(['RH', 'LH']);
 
 export const studentFingeringBodySchema = z
   .strictObject({
-    kind: z.enum(FINGERING_KINDS, 'Fingerings are recorded for scales, arpeggios, broken chords, chromatic scales and seventh chords.'),
+    kind: z.enum(
+      FINGERING_KINDS,
+      'Fingerings are recorded for scales, arpeggios, broken chords, chromatic scales and seventh chords.',
+    ),
     key: z
       .string()
       .trim()
@@ -29,18 +41,46 @@ export const studentFingeringBodySchema = z
     note: z.string().trim().max(500).optional(),
   })
   .superRefine((f, ctx) => {
-    if (isModalKind(f.kind) && f.mode === null) ctx.addIssue({ code: 'custom', path: ['mode'], message: `Choose the mode of the ${f.kind.replace('_', ' ')}.` });
-    if (!isModalKind(f.kind) && f.mode !== null) ctx.addIssue({ code: 'custom', path: ['mode'], message: `Modes do not apply to a ${f.kind.replace('_', ' ')}.` });
+    if (isModalKind(f.kind) && f.mode === null)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['mode'],
+        message: `Choose the mode of the ${f.kind.replace('_', ' ')}.`,
+      });
+    if (!isModalKind(f.kind) && f.mode !== null)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['mode'],
+        message: `Modes do not apply to a ${f.kind.replace('_', ' ')}.`,
+      });
     if (f.inversion !== null && !isInvertibleKind(f.kind)) {
-      ctx.addIssue({ code: 'custom', path: ['inversion'], message: `Inversions do not apply to a ${f.kind.replace('_', ' ')}.` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['inversion'],
+        message: `Inversions do not apply to a ${f.kind.replace('_', ' ')}.`,
+      });
     }
-    if (f.inversion === 'third' && f.kind !== 'dominant_seventh' && f.kind !== 'diminished_seventh') {
-      ctx.addIssue({ code: 'custom', path: ['inversion'], message: 'Only seventh chords have a third inversion.' });
+    if (
+      f.inversion === 'third' &&
+      f.kind !== 'dominant_seventh' &&
+      f.kind !== 'diminished_seventh'
+    ) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['inversion'],
+        message: 'Only seventh chords have a third inversion.',
+      });
     }
-    const check = validateFingering({ kind: f.kind, octaves: f.octaves, direction: f.direction, digits: f.digits });
+    const check = validateFingering({
+      kind: f.kind,
+      octaves: f.octaves,
+      direction: f.direction,
+      digits: f.digits,
+    });
     for (const e of check.errors) {
       // A bad digit is named by its index; a wrong length by the field as a whole.
-      const path = e.code === 'not_a_digit' && e.position !== null ? ['digits', e.position - 1] : ['digits'];
+      const path =
+        e.code === 'not_a_digit' && e.position !== null ? ['digits', e.position - 1] : ['digits'];
       ctx.addIssue({ code: 'custom', path, message: e.message });
     }
   });

@@ -39,7 +39,10 @@ export interface RequirementListVersionSummary {
   publishedAt: string | null;
 }
 
-export interface RequirementListVersionView extends Omit<RequirementListVersionSummary, 'lineCount'> {
+export interface RequirementListVersionView extends Omit<
+  RequirementListVersionSummary,
+  'lineCount'
+> {
   selectionRule: SelectionRule;
   lines: RequirementLineView[];
   createdBy: PersonRef | null;

@@ -19,8 +19,14 @@ export const RUBRIC_FILE_MAX_BYTES = 256 * 1024;
  * `rubric.criteria.2.weight` says exactly where a hand-edited file went wrong.
  */
 export const rubricFileSchema = z.strictObject({
-  format: z.literal(RUBRIC_FILE_FORMAT, `Not a rubric file: "format" must be "${RUBRIC_FILE_FORMAT}".`),
-  formatVersion: z.literal(RUBRIC_FILE_FORMAT_VERSION, `Only format version ${RUBRIC_FILE_FORMAT_VERSION} can be read.`),
+  format: z.literal(
+    RUBRIC_FILE_FORMAT,
+    `Not a rubric file: "format" must be "${RUBRIC_FILE_FORMAT}".`,
+  ),
+  formatVersion: z.literal(
+    RUBRIC_FILE_FORMAT_VERSION,
+    `Only format version ${RUBRIC_FILE_FORMAT_VERSION} can be read.`,
+  ),
   /** Informational; ignored on import. */
   exportedAt: z.iso.datetime({ offset: true }).optional(),
   /** Informational: where the file came from. Ignored on import (an import is always a new draft). */

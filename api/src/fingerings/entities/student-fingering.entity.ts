@@ -1,4 +1,14 @@
-import { Check, Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import {
+  Check,
+  Column,
+  CreateDateColumn,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  PrimaryGeneratedColumn,
+  type Relation,
+} from 'typeorm';
 import type { Direction, Hand, Inversion, Mode, RequestKind } from '@stavemark/shared';
 import type { OrgOwned } from '../../common/org-owned.js';
 import { Organisation } from '../../organisations/entities/organisation.entity.js';
@@ -11,7 +21,10 @@ import { Person } from '../../users/entities/person.entity.js';
  */
 @Entity('student_fingerings')
 @Check('student_fingerings_hand', `hand IN ('RH', 'LH')`)
-@Check('student_fingerings_digits', `cardinality(digits) > 0 AND digits <@ ARRAY[1, 2, 3, 4, 5]::smallint[]`)
+@Check(
+  'student_fingerings_digits',
+  `cardinality(digits) > 0 AND digits <@ ARRAY[1, 2, 3, 4, 5]::smallint[]`,
+)
 @Check('student_fingerings_revision', `revision >= 1`)
 // `request` spells kind|key|mode|hand|inversion in one column so the unique index treats
 // "no mode" and "no inversion" as values (NULLs would never collide).

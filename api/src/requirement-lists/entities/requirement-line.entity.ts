@@ -1,5 +1,24 @@
-import { Check, Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
-import type { Articulation, BeatUnit, Direction, Dynamic, Hands, Inversion, Mode, Motion, RequestKind } from '@stavemark/shared';
+import {
+  Check,
+  Column,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  PrimaryGeneratedColumn,
+  type Relation,
+} from 'typeorm';
+import type {
+  Articulation,
+  BeatUnit,
+  Direction,
+  Dynamic,
+  Hands,
+  Inversion,
+  Mode,
+  Motion,
+  RequestKind,
+} from '@stavemark/shared';
 import { RubricVersion } from '../../rubrics/entities/rubric-version.entity.js';
 import { RequirementListVersion } from './requirement-list-version.entity.js';
 
@@ -9,7 +28,10 @@ import { RequirementListVersion } from './requirement-list-version.entity.js';
  * vocabulary; the request shape validates them.
  */
 @Entity('requirement_lines')
-@Check('requirement_lines_kind', `kind IN ('scale', 'arpeggio', 'broken_chord', 'chromatic', 'dominant_seventh', 'diminished_seventh', 'passage', 'other')`)
+@Check(
+  'requirement_lines_kind',
+  `kind IN ('scale', 'arpeggio', 'broken_chord', 'chromatic', 'dominant_seventh', 'diminished_seventh', 'passage', 'other')`,
+)
 @Check('requirement_lines_tempo', `tempo_bpm > 0 AND tempo_notes_per_beat >= 1`)
 @Check('requirement_lines_weight', `difficulty_weight > 0`)
 @Index(['listVersionId', 'position'], { unique: true })

@@ -1,4 +1,15 @@
-import { Check, Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, OneToMany, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import {
+  Check,
+  Column,
+  CreateDateColumn,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  OneToMany,
+  PrimaryGeneratedColumn,
+  type Relation,
+} from 'typeorm';
 import type { SelectionRule, VersionStatus } from '@stavemark/shared';
 import type { OrgOwned } from '../../common/org-owned.js';
 import { Organisation } from '../../organisations/entities/organisation.entity.js';
@@ -16,7 +27,10 @@ import { RequirementList } from './requirement-list.entity.js';
 @Check('requirement_list_versions_used', `used_at IS NULL OR status = 'published'`)
 @Check('requirement_list_versions_total', `total_marks > 0`)
 @Index(['listId', 'version'], { unique: true })
-@Index('requirement_list_versions_one_draft', ['listId'], { unique: true, where: `status = 'draft'` })
+@Index('requirement_list_versions_one_draft', ['listId'], {
+  unique: true,
+  where: `status = 'draft'`,
+})
 @Index(['organisationId', 'grade'])
 export class RequirementListVersion implements OrgOwned {
   @PrimaryGeneratedColumn('uuid')

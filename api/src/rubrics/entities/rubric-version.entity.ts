@@ -1,4 +1,15 @@
-import { Check, Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, OneToMany, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import {
+  Check,
+  Column,
+  CreateDateColumn,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  OneToMany,
+  PrimaryGeneratedColumn,
+  type Relation,
+} from 'typeorm';
 import type { RequestKind, VersionStatus } from '@stavemark/shared';
 import type { OrgOwned } from '../../common/org-owned.js';
 import { Organisation } from '../../organisations/entities/organisation.entity.js';
