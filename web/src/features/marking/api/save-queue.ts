@@ -225,9 +225,7 @@ export class SaveQueue {
   }
 }
 
-function isConflictDetails(
-  d: unknown,
-): d is {
+function isConflictDetails(d: unknown): d is {
   kind: 'cell_conflict';
   cell: string;
   yours: CellValue;

@@ -9,6 +9,7 @@ import {
   type QuickFlag,
 } from '@stavemark/shared';
 import { requestDetails, requestTitle, tempoText } from './request-text';
+import { ChangeRequestForm } from './ChangeRequestForm';
 import { MarkButtons } from './MarkButtons';
 import type { SheetState } from './useSheet';
 
@@ -22,7 +23,10 @@ export const FLAG_KEYS: Record<QuickFlag, string> = {
 
 const isTyping = (t: EventTarget | null) =>
   t instanceof HTMLElement &&
-  (t.tagName === 'INPUT' || t.tagName === 'TEXTAREA' || t.isContentEditable);
+  (t.tagName === 'INPUT' ||
+    t.tagName === 'TEXTAREA' ||
+    t.tagName === 'SELECT' ||
+    t.isContentEditable);
 
 export function PlayingPhase({
   desk,
@@ -149,6 +153,13 @@ export function PlayingPhase({
           </div>
         ))}
       </details>
+
+      <ChangeRequestForm
+        key={`${r.index}-${r.change?.at ?? ''}`}
+        slotId={desk.slot.id}
+        request={r}
+        disabled={sheet.readOnly}
+      />
 
       <div className="sm-desk-actions">
         <button
