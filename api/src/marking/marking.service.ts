@@ -250,12 +250,10 @@ export class MarkingService {
     const arrangement = await this.arrangements
       .withManager(em)
       .findOne({ where: { studentId: slot.studentId } });
-    const last = await this.draws
-      .withManager(em)
-      .findOne({
-        where: { studentId: slot.studentId, slotId: Not(slot.id) },
-        order: { drawnAt: 'DESC' },
-      });
+    const last = await this.draws.withManager(em).findOne({
+      where: { studentId: slot.studentId, slotId: Not(slot.id) },
+      order: { drawnAt: 'DESC' },
+    });
     const seed = randomBytes(8).toString('hex');
     let result;
     try {
@@ -711,12 +709,10 @@ export class MarkingService {
       const missing: { path: string; message: string }[] = [];
       if (outcome === 'completed' || outcome === 'incomplete') {
         const draw = await this.draws.withManager(em).getOne({ where: { slotId: sheet.slotId } });
-        const rubrics = await this.rubricVersions
-          .withManager(em)
-          .find({
-            where: { id: In([...new Set(draw.requests.map((r) => r.rubricVersionId))]) },
-            relations: { criteria: true },
-          });
+        const rubrics = await this.rubricVersions.withManager(em).find({
+          where: { id: In([...new Set(draw.requests.map((r) => r.rubricVersionId))]) },
+          relations: { criteria: true },
+        });
         for (const r of draw.requests) {
           if (value.get(`asked:${r.index}`) === false) continue;
           const rubric = rubrics.find((x) => x.id === r.rubricVersionId);

@@ -116,13 +116,11 @@ describe('the marking desk', () => {
     const { toLineView } = await import('../requirement-lists/requirement-lists.mapper.js');
     const { RequirementLineRow } =
       await import('../requirement-lists/entities/requirement-line.entity.js');
-    const lineRows = await t.db
-      .getRepository(RequirementLineRow)
-      .find({
-        where: { listVersionId: row!.lv },
-        relations: { rubricVersion: true },
-        order: { position: 'ASC' },
-      });
+    const lineRows = await t.db.getRepository(RequirementLineRow).find({
+      where: { listVersionId: row!.lv },
+      relations: { rubricVersion: true },
+      order: { position: 'ASC' },
+    });
     const replay = drawRequests(
       { lines: lineRows.map(toLineView) as RequirementLine[] },
       row!.rule,
