@@ -321,6 +321,8 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       'KL3005,=cmd|calc,Ash,,2000-04-04,,,3,NEW-A',
       'KL3006,Bea,Ash,,2000-04-04,,,3,NEW-A,extra',
       'KL3007,Cy,Ash,,2008-12-02,,,3,NEW-A',
+      'KL3008,Di,Ash,twin@pupils.example,2000-04-04,,,3,NEW-A',
+      'KL3009,Ed,Ash,TWIN@pupils.example,2000-04-04,,,3,NEW-A',
     ].join('\n');
     const res = await upload(teacher, csv, true);
     expect(res.status).toBe(200);
@@ -341,7 +343,10 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     expect(errs(9)).toEqual([
       'Cy Ash is 17 on 2026-12-01: a student under 18 needs a guardian e-mail.',
     ]);
-    expect(res.body.counts.error).toBe(8);
+    // The same student e-mail twice (compared without case).
+    expect(errs(10)).toEqual(['Student e-mail twin@pupils.example is in the file more than once (also line 11).']);
+    expect(errs(11)).toEqual(['Student e-mail twin@pupils.example is in the file more than once (also line 10).']);
+    expect(res.body.counts.error).toBe(10);
   });
 
   it('ownership: a teacher cannot import into another teacher’s class or change a student outside their classes', async () => {

@@ -17,6 +17,8 @@ import { useUpdateStudent } from '../api/students';
 import { downloadFile } from '../api/transfer';
 import { useUpdateClass } from '../api/update-class';
 import { AddStudentDialog } from '../components/AddStudentDialog';
+import { TeachersEditor } from '../components/TeachersEditor';
+import { activeMembership, useCurrentUser } from '@/lib/auth';
 import '../classes.css';
 
 const consentText = (v: boolean | null, what: string) =>
@@ -30,6 +32,8 @@ export function ClassDetailPage() {
   const remove = useRemoveClassMember();
   const updateStudent = useUpdateStudent();
   const [adding, setAdding] = useState(false);
+  const me = useCurrentUser();
+  const isAdmin = activeMembership(me)?.roles.includes('admin') ?? false;
 
   if (detail.isPending) return <PageLoading />;
   if (detail.isError) return <ErrorMessage error={detail.error} what="this class" />;
@@ -181,6 +185,7 @@ export function ClassDetailPage() {
           <dd>{c.memberCount}</dd>
         </div>
       </dl>
+      {isAdmin && <TeachersEditor key={c.teachers.map((t) => t.id).join()} cls={c} />}
       <div className="sm-table-wrap">
         <DataTable
           value={c.members}
