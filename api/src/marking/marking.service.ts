@@ -595,17 +595,15 @@ export class MarkingService {
   ): Promise<void> {
     const parsed = parseCell(cell)!;
     if (parsed.request === null) return;
-    const draw = await this.draws.withManager(em).getOne({ where: { slotId: sheet.slotId } });
-    const request = draw.requests[parsed.request];
-    if (!request)
+    const rubricIds = await this.drawnRubrics(em, sheet.slotId);
+    const rubricId = rubricIds[parsed.request];
+    if (rubricId === undefined)
       throw invalid(`There is no request ${parsed.request + 1} on this sheet.`, [
         { path: 'cell', message: 'request not in the draw' },
       ]);
     if (parsed.kind !== 'mark') return;
-    const rubric = await this.rubricVersions
-      .withManager(em)
-      .getOne({ where: { id: request.rubricVersionId }, relations: { criteria: true } });
-    const criterion = rubric.criteria!.find((c) => c.key === parsed.part);
+    const rubric = await this.rubricCriteria(em, rubricId);
+    const criterion = rubric.criteria.get(parsed.part!);
     if (!criterion)
       throw invalid(`“${parsed.part}” is not a criterion of ${rubric.name}.`, [
         { path: 'cell', message: 'unknown criterion' },
@@ -617,6 +615,40 @@ export class MarkingService {
     }
   }
 
+  // A slot's draw keeps its requests' rubric versions (a changed request keeps its rubric), and a
+  // published rubric version never changes, so both are read once per process, not on every save.
+  private readonly rubricIdsBySlot = new Map<string, string[]>();
+  private readonly criteriaByRubric = new Map<
+    string,
+    { name: string; criteria: Map<string, { label: string; maxMark: number }> }
+  >();
+
+  private async drawnRubrics(em: EntityManager, slotId: string): Promise<string[]> {
+    const cached = this.rubricIdsBySlot.get(slotId);
+    if (cached) return cached;
+    const draw = await this.draws.withManager(em).getOne({ where: { slotId } });
+    const ids = draw.requests.map((r) => r.rubricVersionId);
+    if (this.rubricIdsBySlot.size > 5000) this.rubricIdsBySlot.clear();
+    this.rubricIdsBySlot.set(slotId, ids);
+    return ids;
+  }
+
+  private async rubricCriteria(em: EntityManager, rubricVersionId: string) {
+    const cached = this.criteriaByRubric.get(rubricVersionId);
+    if (cached) return cached;
+    const rubric = await this.rubricVersions
+      .withManager(em)
+      .getOne({ where: { id: rubricVersionId }, relations: { criteria: true } });
+    const entry = {
+      name: rubric.name,
+      criteria: new Map(
+        rubric.criteria!.map((c) => [c.key, { label: c.label, maxMark: c.maxMark }]),
+      ),
+    };
+    if (rubric.status === 'published') this.criteriaByRubric.set(rubricVersionId, entry);
+    return entry;
+  }
+
   /** The cell's row, created empty (version 0) when new, and locked until the transaction ends. */
   private async lockCell(
     em: EntityManager,
@@ -624,14 +656,12 @@ export class MarkingService {
     cell: string,
     changeId: string,
   ): Promise<{ version: number; value: CellValue }> {
-    await em.query(
-      `INSERT INTO mark_cells (organisation_id, sheet_id, cell, value, version, last_change_id)
-       VALUES ($1, $2, $3, 'null'::jsonb, 0, $4) ON CONFLICT (sheet_id, cell) DO NOTHING`,
-      [sheet.organisationId, sheet.id, cell, changeId],
-    );
+    // DO UPDATE (to the same value) rather than DO NOTHING, so the row comes back locked either way.
     const [row] = (await em.query(
-      `SELECT version, value FROM mark_cells WHERE sheet_id = $1 AND cell = $2 FOR UPDATE`,
-      [sheet.id, cell],
+      `INSERT INTO mark_cells (organisation_id, sheet_id, cell, value, version, last_change_id)
+       VALUES ($1, $2, $3, 'null'::jsonb, 0, $4)
+       ON CONFLICT (sheet_id, cell) DO UPDATE SET cell = EXCLUDED.cell RETURNING version, value`,
+      [sheet.organisationId, sheet.id, cell, changeId],
     )) as { version: number; value: CellValue }[];
     return row!;
   }
@@ -660,19 +690,16 @@ export class MarkingService {
         version: current.version,
       };
     }
-    let version = current.version;
-    if (!isDeepStrictEqual(current.value, value) || current.version === 0) {
-      version = current.version + 1;
-      await em.query(
-        `UPDATE mark_cells SET value = $3::jsonb, version = $4, last_change_id = $5, updated_at = now() WHERE sheet_id = $1 AND cell = $2`,
-        [sheet.id, cell, JSON.stringify(value), version, changeId],
-      );
-    }
-    await em.query(`UPDATE mark_changes SET result = $2, version = $3 WHERE change_id = $1`, [
-      changeId,
-      kind,
-      version,
-    ]);
+    const changes = !isDeepStrictEqual(current.value, value) || current.version === 0;
+    const version = changes ? current.version + 1 : current.version;
+    // The cell and the change's record in one statement (one round trip on the hot path).
+    await em.query(
+      `WITH cell AS (
+         UPDATE mark_cells SET value = $3::jsonb, version = $4, last_change_id = $5, updated_at = now()
+         WHERE sheet_id = $1 AND cell = $2 AND $7::boolean)
+       UPDATE mark_changes SET result = $6, version = $4 WHERE change_id = $5`,
+      [sheet.id, cell, JSON.stringify(value), version, changeId, kind, changes],
+    );
     return { status: 'applied', cell, value, version, changeId };
   }
 
