@@ -29,6 +29,14 @@ export function useSheet(sheet: MarkSheetView, personId: string) {
     };
   }, [queue, sheet.cells]);
 
+  // A submitted sheet is the server's alone (corrections arrive as a reloaded desk); a draft shows
+  // the local values, which may be ahead of any view the server sent.
+  const serverValues = useMemo(
+    () => new Map<string, CellValue>(sheet.cells.map((c) => [c.cell, c.value])),
+    [sheet.cells],
+  );
+  const shown = sheet.status === 'submitted' ? serverValues : values;
+
   const snapshot = useSyncExternalStore(
     useCallback((l: () => void) => queue.subscribe(l), [queue]),
     queue.getSnapshot,
@@ -50,7 +58,7 @@ export function useSheet(sheet: MarkSheetView, personId: string) {
     [queue],
   );
 
-  return { values, set, resolve, snapshot, readOnly: sheet.status === 'submitted' };
+  return { values: shown, set, resolve, snapshot, readOnly: sheet.status === 'submitted' };
 }
 
 export type SheetState = ReturnType<typeof useSheet>;

@@ -10,6 +10,7 @@ import { PageLoading } from '@/components/PageLoading';
 import { useDesk } from '../api/get-desk';
 import { useOpenSitting, useStartSlot } from '../api/start-slot';
 import { useSubmitSheet } from '../api/submit-sheet';
+import { CorrectionPanel } from '../components/CorrectionPanel';
 import { Countdown } from '../components/Countdown';
 import { PlayingPhase } from '../components/PlayingPhase';
 import { SaveStatus } from '../components/SaveStatus';
@@ -171,6 +172,7 @@ function Desk({ desk, sheet: view }: { desk: DeskView; sheet: MarkSheetView }) {
         <>
           <WriteUpPhase desk={desk} sheet={sheet} />
           {view.status === 'draft' && <SubmitPanel desk={desk} sheetId={view.id} sheet={sheet} />}
+          {view.status === 'submitted' && <CorrectionPanel desk={desk} sheetId={view.id} />}
         </>
       )}
     </section>
