@@ -23,11 +23,13 @@ interface Ctx {
 }
 
 interface Row {
-  method: 'get' | 'post' | 'patch' | 'delete';
+  method: 'get' | 'post' | 'put' | 'patch' | 'delete';
   /** OpenAPI path, e.g. /api/users/{id} */
   route: string;
-  path: (c: Ctx) => string;
+  path: (c: Ctx, caller: Caller) => string;
   body?: (c: Ctx, caller: Caller) => object;
+  /** A multipart upload in the form field `file` instead of a JSON body. */
+  file?: () => { name: string; content: Buffer };
   expect: Record<Caller, number>;
 }
 
@@ -41,6 +43,147 @@ const adminOnly = (ok: number, otherOrg = ok): Record<Caller, number> => ({
   student: 403,
   otherOrgAdmin: otherOrg,
 });
+
+// ---- Rubrics, requirement lists and students' fingerings (issue 3) ----------------------------
+// Teachers and admins edit, examiners and students read published versions only, nobody outside
+// the organisation sees anything (404); a published version answers 409 to an edit. Records that
+// a row changes (publishing, a new version) are made per caller so each call meets a fresh one.
+type Editor = 'admin' | 'teacher';
+const editorOf = (caller: Caller): Editor => (caller === 'teacher' ? 'teacher' : 'admin');
+interface TeachingCtx {
+  rubricId: string;
+  publishedRubricVersionId: string;
+  draftRubricVersionId: string;
+  /** Per editor: a draft to publish, and a rubric with no draft to start a new version of. */
+  publishRubricDraft: Record<Editor, string>;
+  rubricWithoutDraft: Record<Editor, string>;
+  listId: string;
+  publishedListVersionId: string;
+  draftListVersionId: string;
+  publishListDraft: Record<Editor, string>;
+  listWithoutDraft: Record<Editor, string>;
+  /** The demo student (taught by the demo teacher) and a student the demo teacher does not teach. */
+  ownStudentId: string;
+  otherStudentId: string;
+}
+const tc = {} as TeachingCtx;
+const criteria = [{ key: 'note_accuracy', label: 'Note accuracy', weight: 1, maxMark: 4, descriptors: [{ min: 0, max: 4, text: 'As heard.' }] }];
+const rubricBody = () => ({ name: 'Matrix rubric', kinds: ['scale'], criteria });
+const listBody = () => ({
+  name: 'Matrix list',
+  grade: '2',
+  totalMarks: 10,
+  selectionRule: { count: 1, minPerKind: { scale: 1 } },
+  lines: [
+    {
+      kind: 'scale',
+      keys: ['C', 'G'],
+      modes: ['major'],
+      hands: ['RH', 'LH'],
+      motions: [],
+      octaves: [1],
+      articulations: ['legato'],
+      dynamics: [],
+      inversions: [],
+      tempo: { bpm: 60, beatUnit: 'quarter', notesPerBeat: 2 },
+      rubricVersionId: tc.publishedRubricVersionId,
+      difficultyWeight: 1,
+    },
+  ],
+});
+// C major, one octave, right hand, up: 1-2-3-1-2-3-4-5 (common practice).
+const fingeringBody = () => ({ kind: 'scale', key: 'C', mode: 'major', hand: 'RH', octaves: 1, direction: 'up', digits: [1, 2, 3, 1, 2, 3, 4, 5] });
+const editors = (ok: number, otherOrg = 404): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: 403, otherOrgAdmin: otherOrg });
+const readers = (): Record<Caller, number> => ({ ...members(200), otherOrgAdmin: 404 });
+
+async function prepareTeaching(): Promise<void> {
+  const as = async (email: string) => ({ Authorization: `Bearer ${await tokenFor(email)}` });
+  const admin = await as(EMAIL.admin);
+  const teacher = await as(EMAIL.teacher);
+  const ok = <T>(res: { status: number; body: T; text: string }, status: number): T => {
+    if (res.status !== status) throw new Error(`setup: expected ${status}, got ${res.status} ${res.text}`);
+    return res.body;
+  };
+  const rubrics = ok(await api().get('/api/rubrics').set(admin), 200) as { id: string; starterKey: string | null; published: { id: string } | null }[];
+  const scales = rubrics.find((r) => r.starterKey === 'scales');
+  if (!scales?.published) throw new Error('setup: the starter library is not in the demo school');
+  tc.rubricId = scales.id;
+  tc.publishedRubricVersionId = scales.published.id;
+  const newRubric = async () => ok(await api().post('/api/rubrics').set(teacher).send(rubricBody()), 201) as { id: string; rubricId: string };
+  const publishRubric = async (id: string) => ok(await api().post(`/api/rubric-versions/${id}/publish`).set(teacher), 200);
+  tc.draftRubricVersionId = (await newRubric()).id;
+  tc.publishRubricDraft = { admin: (await newRubric()).id, teacher: (await newRubric()).id };
+  tc.rubricWithoutDraft = { admin: '', teacher: '' };
+  for (const e of ['admin', 'teacher'] as const) {
+    const r = await newRubric();
+    await publishRubric(r.id);
+    tc.rubricWithoutDraft[e] = r.rubricId;
+  }
+
+  const lists = ok(await api().get('/api/requirement-lists').set(admin), 200) as { id: string; starterKey: string | null; published: { id: string } | null }[];
+  const grade1 = lists.find((l) => l.starterKey === 'grade-1');
+  if (!grade1?.published) throw new Error('setup: the starter lists are not in the demo school');
+  tc.listId = grade1.id;
+  tc.publishedListVersionId = grade1.published.id;
+  const newList = async () => ok(await api().post('/api/requirement-lists').set(teacher).send(listBody()), 201) as { id: string; listId: string };
+  tc.draftListVersionId = (await newList()).id;
+  tc.publishListDraft = { admin: (await newList()).id, teacher: (await newList()).id };
+  tc.listWithoutDraft = { admin: '', teacher: '' };
+  for (const e of ['admin', 'teacher'] as const) {
+    const l = await newList();
+    ok(await api().post(`/api/requirement-list-versions/${l.id}/publish`).set(teacher), 200);
+    tc.listWithoutDraft[e] = l.listId;
+  }
+
+  const student = async (search: string) => {
+    const rows = ok(await api().get(`/api/students?search=${search}`).set(admin), 200) as { id: string; pupilNumber: string }[];
+    const row = rows.find((r) => r.pupilNumber === search);
+    if (!row) throw new Error(`setup: no student ${search}`);
+    return row.id;
+  };
+  tc.ownStudentId = await student('KL1021'); // Ellis Northcott, THU-SNR, taught by the demo teacher
+  tc.otherStudentId = await student('KL1031'); // Elodie Merrow, SAT-DIP only, taught by someone else
+}
+
+const TEACHING_ROWS: Row[] = [
+  { method: 'get', route: '/api/rubrics', path: () => '/api/rubrics', expect: members(200) },
+  { method: 'post', route: '/api/rubrics', path: () => '/api/rubrics', body: rubricBody, expect: editors(201, 201) },
+  {
+    method: 'post',
+    route: '/api/rubrics/import',
+    path: () => '/api/rubrics/import',
+    file: () => ({ name: 'matrix.rubric.json', content: Buffer.from(JSON.stringify({ format: 'stavemark.rubric', formatVersion: 1, rubric: rubricBody() })) }),
+    expect: editors(201, 201),
+  },
+  { method: 'get', route: '/api/rubrics/{id}', path: () => `/api/rubrics/${tc.rubricId}`, expect: readers() },
+  { method: 'post', route: '/api/rubrics/{id}/versions', path: (_c, caller) => `/api/rubrics/${tc.rubricWithoutDraft[editorOf(caller)]}/versions`, body: rubricBody, expect: editors(201) },
+  { method: 'get', route: '/api/rubric-versions/{id}', path: () => `/api/rubric-versions/${tc.publishedRubricVersionId}`, expect: readers() },
+  // A draft is not given to examiners and students.
+  { method: 'get', route: '/api/rubric-versions/{id}', path: () => `/api/rubric-versions/${tc.draftRubricVersionId}`, expect: { ...editors(200), examiner: 404, student: 404 } },
+  { method: 'put', route: '/api/rubric-versions/{id}', path: () => `/api/rubric-versions/${tc.draftRubricVersionId}`, body: rubricBody, expect: editors(200) },
+  // A published version never changes.
+  { method: 'put', route: '/api/rubric-versions/{id}', path: () => `/api/rubric-versions/${tc.publishedRubricVersionId}`, body: rubricBody, expect: editors(409) },
+  { method: 'post', route: '/api/rubric-versions/{id}/publish', path: (_c, caller) => `/api/rubric-versions/${tc.publishRubricDraft[editorOf(caller)]}/publish`, expect: editors(200) },
+  { method: 'post', route: '/api/rubric-versions/{id}/publish', path: () => `/api/rubric-versions/${tc.publishedRubricVersionId}/publish`, expect: editors(409) },
+  { method: 'get', route: '/api/rubric-versions/{id}/export', path: () => `/api/rubric-versions/${tc.publishedRubricVersionId}/export`, expect: readers() },
+
+  { method: 'get', route: '/api/requirement-lists', path: () => '/api/requirement-lists', expect: members(200) },
+  // Another organisation cannot build a list on our rubric version: it is not there for them.
+  { method: 'post', route: '/api/requirement-lists', path: () => '/api/requirement-lists', body: listBody, expect: editors(201, 400) },
+  { method: 'get', route: '/api/requirement-lists/{id}', path: () => `/api/requirement-lists/${tc.listId}`, expect: readers() },
+  { method: 'post', route: '/api/requirement-lists/{id}/versions', path: (_c, caller) => `/api/requirement-lists/${tc.listWithoutDraft[editorOf(caller)]}/versions`, body: listBody, expect: editors(201) },
+  { method: 'get', route: '/api/requirement-list-versions/{id}', path: () => `/api/requirement-list-versions/${tc.publishedListVersionId}`, expect: readers() },
+  { method: 'get', route: '/api/requirement-list-versions/{id}', path: () => `/api/requirement-list-versions/${tc.draftListVersionId}`, expect: { ...editors(200), examiner: 404, student: 404 } },
+  { method: 'put', route: '/api/requirement-list-versions/{id}', path: () => `/api/requirement-list-versions/${tc.draftListVersionId}`, body: listBody, expect: editors(200) },
+  { method: 'put', route: '/api/requirement-list-versions/{id}', path: () => `/api/requirement-list-versions/${tc.publishedListVersionId}`, body: listBody, expect: editors(409) },
+  { method: 'post', route: '/api/requirement-list-versions/{id}/publish', path: (_c, caller) => `/api/requirement-list-versions/${tc.publishListDraft[editorOf(caller)]}/publish`, expect: editors(200) },
+
+  // Fingerings: the student's own teachers and admins set them; the student reads their own.
+  { method: 'get', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.ownStudentId}/fingerings`, expect: { ...members(200), examiner: 404, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.otherStudentId}/fingerings`, expect: { ...members(404), admin: 200 } },
+  { method: 'post', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.ownStudentId}/fingerings`, body: fingeringBody, expect: editors(201) },
+  { method: 'post', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.otherStudentId}/fingerings`, body: fingeringBody, expect: { ...editors(201), teacher: 404 } },
+];
 
 // ---- The marking desk (issue 6) ---------------------------------------------------------------
 // Examiners only, and only the slots they mark: a slot or sheet of another examiner is not there
@@ -133,6 +276,7 @@ const ROWS: Row[] = [
     // Another organisation's admin must not learn that the person exists.
     expect: adminOnly(200, 404),
   },
+  ...TEACHING_ROWS,
   ...MARKING_ROWS,
 ];
 
@@ -147,15 +291,20 @@ describe('role matrix', () => {
     const other = await tokenFor(EMAIL.otherOrgAdmin);
     const me = await api().get('/api/auth/me').set('Authorization', `Bearer ${other}`);
     ctx.otherOrgId = me.body.activeOrganisationId;
+    await prepareTeaching();
     await prepareMarking();
   });
 
   for (const row of ROWS) {
     for (const caller of CALLERS) {
       it(`${row.method.toUpperCase()} ${row.route} as ${caller} → ${row.expect[caller]}`, async () => {
-        let req = api()[row.method](row.path(ctx));
+        let req = api()[row.method](row.path(ctx, caller));
         if (caller !== 'none') req = req.set('Authorization', `Bearer ${await tokenFor(EMAIL[caller])}`);
         if (row.body) req = req.send(row.body(ctx, caller));
+        if (row.file) {
+          const f = row.file();
+          req = req.attach('file', f.content, { filename: f.name, contentType: 'application/json' });
+        }
         const res = await req;
         seen.push(res.text);
         expect({ status: res.status, body: res.status >= 400 ? res.body : undefined }).toMatchObject({
