@@ -32,9 +32,10 @@ export function ArrangementDialog({ candidate, onHide }: Props) {
     >
       {current.isError && <PlanProblemAlert problem={problemOf(current.error)} />}
       {candidate && current.data && (
-        // Keyed by what was loaded, so the fields start from the saved arrangement.
+        // Keyed by the candidate (not the data: a refetch after saving must not remount the form
+        // while its save is settling), so the fields start from the saved arrangement.
         <ArrangementForm
-          key={`${candidate.studentId}-${current.data.updatedAt ?? 'none'}`}
+          key={candidate.studentId}
           candidate={candidate}
           saved={current.data}
           onHide={onHide}

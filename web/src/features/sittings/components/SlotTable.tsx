@@ -55,6 +55,8 @@ export function SlotTable({
   const edit = sitting.permissions.edit;
   const paperName = new Map(sitting.papers.map((p) => [p.id, `${p.name}`]));
   const last = sitting.slots.length - 1;
+  // A student's view carries no lists or examiners: only their own time.
+  const ownOnly = sitting.papers.length === 0;
 
   const timeBody = (s: SlotView) => (
     <span className="sm-slot-time">
@@ -205,10 +207,12 @@ export function SlotTable({
       >
         <Column header="Time" body={timeBody} />
         <Column header="Candidate" body={candidateBody} />
-        <Column header="List" body={(s: SlotView) => paperName.get(s.paperId) ?? ''} />
+        {!ownOnly && (
+          <Column header="List" body={(s: SlotView) => paperName.get(s.paperId) ?? ''} />
+        )}
         <Column header="Length" body={minutesBody} />
-        <Column header="Examiners" body={examinerBody} />
-        <Column header="Outcome" body={outcomeBody} />
+        {!ownOnly && <Column header="Examiners" body={examinerBody} />}
+        {!ownOnly && <Column header="Outcome" body={outcomeBody} />}
         <Column header={<span className="sm-visually-hidden">Actions</span>} body={actionsBody} />
       </DataTable>
     </div>
