@@ -242,6 +242,126 @@ const MARKING_ROWS: Row[] = [
   { method: 'post', route: '/api/mark-sheets/{id}/corrections', path: () => `/api/mark-sheets/${mc.sheetId}/corrections`, body: () => ({ changeId: randomUUID(), cell: 'flag:0:slip', value: 1, reason: 'Matrix check' }), expect: examinerOnly(409) },
 ];
 
+// ---- Sittings (issue 5) ----------------------------------------------------------------------
+// Teachers and admins plan; examiners see only the scheduled sittings whose panel they sit on and
+// the slots they mark; students only sittings they take part in (their own slot); another
+// organisation's anything is 404. Records a row changes are made per caller where it matters.
+interface SittingCtx {
+  todayId: string;
+  /** Scheduled, Ottilie's panel only, Ada the only candidate: neither the examiner nor the student may see it. */
+  unassignedId: string;
+  /** A draft of the demo teacher's, panel Priya + Ottilie, lists grade 3 and grade 1. */
+  draftId: string;
+  moveSlotId: string;
+  swapWithSlotId: string;
+  removable: Record<Editor, string>;
+  deletable: Record<Editor, string>;
+  /** Scheduled, Priya's panel: a slot for outcomes, and two withdrawn attempts to re-sit. */
+  outcomeSlotId: string;
+  resitOf: Record<Editor, string>;
+  wrenId: string;
+  bramId: string;
+  g1: string;
+  g3: string;
+  examiners: { priya: string; ottilie: string };
+}
+const sc = {} as SittingCtx;
+const sittingDay = (date: string, room: string, over: object = {}) => ({
+  title: `Matrix ${room}`,
+  date,
+  room,
+  dayStart: '09:00',
+  dayEnd: '12:00',
+  papers: [{ listVersionId: sc.g3 }, { listVersionId: sc.g1 }],
+  examinerIds: [sc.examiners.priya, sc.examiners.ottilie],
+  ...over,
+});
+const planners = (ok: number, otherOrg = 404): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: 403, otherOrgAdmin: otherOrg });
+
+async function prepareSittings(): Promise<void> {
+  const admin = { Authorization: `Bearer ${await tokenFor(EMAIL.admin)}` };
+  const teacher = { Authorization: `Bearer ${await tokenFor(EMAIL.teacher)}` };
+  const ok = <T>(res: { status: number; body: T; text: string }, status: number): T => {
+    if (res.status !== status) throw new Error(`setup: expected ${status}, got ${res.status} ${res.text}`);
+    return res.body;
+  };
+  const lists = ok(await api().get('/api/requirement-lists').set(admin), 200) as { starterKey: string | null; published: { id: string } | null }[];
+  sc.g1 = lists.find((l) => l.starterKey === 'grade-1')!.published!.id;
+  sc.g3 = lists.find((l) => l.starterKey === 'grade-3')!.published!.id;
+  const ex = ok(await api().get('/api/examiners').set(admin), 200) as { id: string; email: string }[];
+  sc.examiners = { priya: ex.find((e) => e.email === EMAIL.examiner)!.id, ottilie: ex.find((e) => e.email === 'ottilie.brandt@demo.example')!.id };
+  const sittings = ok(await api().get('/api/sittings').set(admin), 200) as { id: string; title: string; status: string }[];
+  sc.todayId = sittings.find((s) => s.title === 'Grade 5 mock — Thursday Seniors')!.id;
+  const student = async (pn: string) => (ok(await api().get(`/api/students?search=${pn}`).set(admin), 200) as { id: string; pupilNumber: string }[]).find((s) => s.pupilNumber === pn)!.id;
+  const ids = Object.fromEntries(await Promise.all(['KL1001', 'KL1002', 'KL1003', 'KL1005', 'KL1011', 'KL1013', 'KL1015', 'KL1017', 'KL1019', 'KL1023'].map(async (pn) => [pn, await student(pn)])));
+  sc.wrenId = ids.KL1023!;
+  sc.bramId = ids.KL1002!;
+  type View = { id: string; slots: { id: string; studentId: string }[] };
+  const plan = async (body: object, studentIds: string[], schedule: boolean): Promise<View> => {
+    const s = ok(await api().post('/api/sittings').set(teacher).send(body), 201) as View;
+    let v = s;
+    if (studentIds.length) v = ok(await api().post(`/api/sittings/${s.id}/candidates`).set(teacher).send({ studentIds }), 200) as View;
+    if (schedule) v = ok(await api().post(`/api/sittings/${s.id}/status`).set(teacher).send({ status: 'scheduled' }), 200) as View;
+    return v;
+  };
+  const slotFor = (v: View, sid: string) => v.slots.find((s) => s.studentId === sid)!.id;
+  await plan(sittingDay('2030-01-07', 'Matrix A', { examinerIds: [sc.examiners.ottilie] }), [ids.KL1001!], true).then((v) => (sc.unassignedId = v.id));
+  const draft = await plan(sittingDay('2030-01-08', 'Matrix B'), [ids.KL1011!, ids.KL1013!, ids.KL1015!, ids.KL1017!], false);
+  sc.draftId = draft.id;
+  sc.moveSlotId = slotFor(draft, ids.KL1011!);
+  sc.swapWithSlotId = slotFor(draft, ids.KL1013!);
+  sc.removable = { admin: slotFor(draft, ids.KL1015!), teacher: slotFor(draft, ids.KL1017!) };
+  sc.deletable = {
+    admin: (ok(await api().post('/api/sittings').set(teacher).send(sittingDay('2030-01-10', 'Matrix D1')), 201) as View).id,
+    teacher: (ok(await api().post('/api/sittings').set(teacher).send(sittingDay('2030-01-10', 'Matrix D2')), 201) as View).id,
+  };
+  const scheduled = await plan(sittingDay('2030-01-09', 'Matrix C', { examinerIds: [sc.examiners.priya] }), [ids.KL1019!, ids.KL1003!, ids.KL1005!], true);
+  sc.outcomeSlotId = slotFor(scheduled, ids.KL1019!);
+  sc.resitOf = { admin: slotFor(scheduled, ids.KL1003!), teacher: slotFor(scheduled, ids.KL1005!) };
+  for (const id of Object.values(sc.resitOf)) ok(await api().post(`/api/slots/${id}/outcome`).set(teacher).send({ outcome: 'withdrawn' }), 200);
+}
+
+const SITTING_ROWS: Row[] = [
+  { method: 'get', route: '/api/sittings', path: () => '/api/sittings', expect: members(200) },
+  // Another organisation cannot plan on our requirement list: it is not there for them.
+  { method: 'post', route: '/api/sittings', path: () => '/api/sittings', body: (_c, caller) => sittingDay('2030-02-04', `Matrix new ${caller} ${seq++}`), expect: planners(201, 400) },
+  { method: 'get', route: '/api/sittings/{id}', path: () => `/api/sittings/${sc.todayId}`, expect: { ...members(200), otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/sittings/{id}', path: () => `/api/sittings/${sc.unassignedId}`, expect: { ...members(200), examiner: 404, student: 404, otherOrgAdmin: 404 } },
+  // A draft is not shown to examiners, even on its panel.
+  { method: 'patch', route: '/api/sittings/{id}', path: () => `/api/sittings/${sc.draftId}`, body: () => ({ title: 'Matrix B' }), expect: planners(200) },
+  { method: 'delete', route: '/api/sittings/{id}', path: (_c, caller) => `/api/sittings/${sc.deletable[editorOf(caller)]}`, expect: planners(204) },
+  // Adding someone already there skips them: the second call changes nothing.
+  { method: 'post', route: '/api/sittings/{id}/candidates', path: () => `/api/sittings/${sc.draftId}/candidates`, body: () => ({ studentIds: [sc.bramId] }), expect: planners(200) },
+  { method: 'post', route: '/api/sittings/{id}/double-marking', path: () => `/api/sittings/${sc.draftId}/double-marking`, body: () => ({ share: 0 }), expect: planners(200) },
+  // A draft cannot jump to published (409); an examiner cannot see a draft at all.
+  { method: 'post', route: '/api/sittings/{id}/status', path: () => `/api/sittings/${sc.draftId}/status`, body: () => ({ status: 'published' }), expect: { ...planners(409), examiner: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/calendar', path: () => `/api/sittings/${sc.todayId}/calendar`, expect: { ...members(200), otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/calendar', path: () => `/api/sittings/${sc.unassignedId}/calendar`, expect: { ...members(200), examiner: 404, student: 404, otherOrgAdmin: 404 } },
+  { method: 'patch', route: '/api/slots/{id}', path: () => `/api/slots/${sc.moveSlotId}`, body: () => ({ notBefore: null }), expect: planners(200) },
+  { method: 'post', route: '/api/slots/{id}/move', path: () => `/api/slots/${sc.moveSlotId}/move`, body: (_c, caller) => ({ direction: caller === 'admin' ? 'later' : 'earlier' }), expect: planners(200) },
+  { method: 'post', route: '/api/slots/{id}/swap', path: () => `/api/slots/${sc.moveSlotId}/swap`, body: () => ({ withSlotId: sc.swapWithSlotId }), expect: planners(200) },
+  { method: 'delete', route: '/api/slots/{id}', path: (_c, caller) => `/api/slots/${sc.removable[editorOf(caller)]}`, expect: planners(200) },
+  // The examiner who marks the slot may record its outcome (a withdrawal, before the day).
+  { method: 'post', route: '/api/slots/{id}/outcome', path: () => `/api/slots/${sc.outcomeSlotId}/outcome`, body: () => ({ outcome: 'withdrawn' }), expect: { ...planners(200), examiner: 200 } },
+  { method: 'post', route: '/api/slots/{id}/resit', path: (_c, caller) => `/api/slots/${sc.resitOf[editorOf(caller)]}/resit`, body: () => ({ sittingId: sc.draftId }), expect: planners(201) },
+  // Each organisation's own day; students have their own slot on the sitting instead.
+  { method: 'get', route: '/api/day-schedule', path: () => '/api/day-schedule?date=2030-01-09', expect: { ...members(200), student: 403 } },
+  { method: 'get', route: '/api/examiners', path: () => '/api/examiners', expect: planners(200, 200) },
+  // Confidential: an examiner sees an arrangement only while marking that candidate.
+  { method: 'get', route: '/api/students/{id}/access-arrangement', path: () => `/api/students/${sc.wrenId}/access-arrangement`, expect: { ...planners(200), examiner: 404 } },
+  { method: 'get', route: '/api/students/{id}/access-arrangement', path: () => `/api/students/${tc.otherStudentId}/access-arrangement`, expect: { ...planners(200), teacher: 404, examiner: 404 } },
+  { method: 'put', route: '/api/students/{id}/access-arrangement', path: () => `/api/students/${sc.bramId}/access-arrangement`, body: () => ({ extraTimePercent: 10, restBreakMinutes: 0, substitutions: [] }), expect: planners(200) },
+  { method: 'put', route: '/api/students/{id}/access-arrangement', path: () => `/api/students/${tc.otherStudentId}/access-arrangement`, body: () => ({ extraTimePercent: 10, restBreakMinutes: 0, substitutions: [] }), expect: { ...planners(200), teacher: 404 } },
+  { method: 'get', route: '/api/band-policy', path: () => '/api/band-policy', expect: planners(200, 200) },
+  {
+    method: 'post',
+    route: '/api/band-policy',
+    path: () => '/api/band-policy',
+    body: () => ({ bands: [{ key: 'distinction', label: 'Distinction', minPercent: 80 }, { key: 'merit', label: 'Merit', minPercent: 70 }, { key: 'pass', label: 'Pass', minPercent: 55 }], below: { key: 'not_yet_passed', label: 'Not yet passed' } }),
+    expect: adminOnly(201),
+  },
+];
+
 let seq = 0;
 const ROWS: Row[] = [
   { method: 'get', route: '/api/health', path: () => '/api/health', expect: all(200) },
@@ -277,6 +397,7 @@ const ROWS: Row[] = [
     expect: adminOnly(200, 404),
   },
   ...TEACHING_ROWS,
+  ...SITTING_ROWS,
   ...MARKING_ROWS,
 ];
 
@@ -292,6 +413,7 @@ describe('role matrix', () => {
     const me = await api().get('/api/auth/me').set('Authorization', `Bearer ${other}`);
     ctx.otherOrgId = me.body.activeOrganisationId;
     await prepareTeaching();
+    await prepareSittings();
     await prepareMarking();
   });
 
