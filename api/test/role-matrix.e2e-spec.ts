@@ -185,6 +185,87 @@ const TEACHING_ROWS: Row[] = [
   { method: 'post', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.otherStudentId}/fingerings`, body: fingeringBody, expect: { ...editors(201), teacher: 404 } },
 ];
 
+// ---- Classes, class-list import, students, account links and the Outbox (issue 4) --------------
+// A teacher reaches only the classes they teach and the students in them: another teacher's class
+// or student answers 404, as does anything of another organisation.
+interface ClassCtx {
+  ownClassId: string;
+  otherTeachersClassId: string;
+  ownStudentId: string;
+  otherTeachersStudentId: string;
+  /** A class of the demo teacher's with one member per editor to take out. */
+  removalClassId: string;
+  removable: Record<'admin' | 'teacher', string>;
+}
+const cc = {} as ClassCtx;
+const staff = (ok: number, otherOrg = ok): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: 403, otherOrgAdmin: otherOrg });
+const ownOnly = (ok: number): Record<Caller, number> => ({ ...staff(ok, 404), teacher: 404 });
+const FAKE_TOKEN = 'A'.repeat(43);
+const importCsv = (caller: Caller): Buffer =>
+  Buffer.from(
+    'Pupil number,Given name,Family name,Student e-mail,Date of birth,Guardian name,Guardian e-mail,Grade,Class code\r\n' +
+      `MX-${caller},Matrix,Pupil,,2000-01-01,,,3,MATRIX-${caller.toUpperCase()}\r\n`,
+  );
+
+async function prepareClasses(): Promise<void> {
+  const admin = { Authorization: `Bearer ${await tokenFor(EMAIL.admin)}` };
+  const teacher = { Authorization: `Bearer ${await tokenFor(EMAIL.teacher)}` };
+  const ok = <T>(res: { status: number; body: T; text: string }, status: number): T => {
+    if (res.status !== status) throw new Error(`setup: expected ${status}, got ${res.status} ${res.text}`);
+    return res.body;
+  };
+  const classes = ok(await api().get('/api/classes').set(admin), 200) as { id: string; code: string }[];
+  cc.ownClassId = classes.find((c) => c.code === 'MON-FND')!.id; // taught by the demo teacher
+  cc.otherTeachersClassId = classes.find((c) => c.code === 'SAT-DIP')!.id; // taught by someone else
+  const student = async (pn: string) => (ok(await api().get(`/api/students?search=${pn}`).set(admin), 200) as { id: string }[])[0]!.id;
+  cc.ownStudentId = await student('KL1004');
+  cc.otherTeachersStudentId = await student('KL1031');
+  const created = ok(await api().post('/api/classes').set(teacher).send({ name: 'Matrix removals', code: `MATRIX-RM-${Date.now()}` }), 201) as { id: string };
+  cc.removalClassId = created.id;
+  cc.removable = { admin: await student('KL1001'), teacher: await student('KL1002') };
+  for (const id of Object.values(cc.removable)) ok(await api().post(`/api/classes/${created.id}/members`).set(teacher).send({ studentId: id }), 200);
+}
+
+const CLASS_ROWS: Row[] = [
+  { method: 'get', route: '/api/classes', path: () => '/api/classes', expect: staff(200) },
+  { method: 'post', route: '/api/classes', path: () => '/api/classes', body: (_c, caller) => ({ name: 'Matrix class', code: `MX-${caller}-${Date.now()}-${seq++}` }), expect: staff(201) },
+  { method: 'get', route: '/api/classes/import/template', path: () => '/api/classes/import/template', expect: staff(200) },
+  // A dry run into a new class code of the caller's own organisation.
+  { method: 'post', route: '/api/classes/import', path: () => '/api/classes/import?dryRun=true', file: () => ({ name: 'matrix.csv', content: importCsv('teacher') }), expect: staff(200) },
+  { method: 'get', route: '/api/classes/{id}', path: () => `/api/classes/${cc.ownClassId}`, expect: staff(200, 404) },
+  { method: 'get', route: '/api/classes/{id}', path: () => `/api/classes/${cc.otherTeachersClassId}`, expect: ownOnly(200) },
+  { method: 'patch', route: '/api/classes/{id}', path: () => `/api/classes/${cc.ownClassId}`, body: () => ({ name: 'Monday Foundations' }), expect: staff(200, 404) },
+  { method: 'patch', route: '/api/classes/{id}', path: () => `/api/classes/${cc.otherTeachersClassId}`, body: () => ({ name: 'Saturday Diploma Preparation' }), expect: ownOnly(200) },
+  { method: 'get', route: '/api/classes/{id}/export', path: () => `/api/classes/${cc.ownClassId}/export`, expect: staff(200, 404) },
+  { method: 'get', route: '/api/classes/{id}/export', path: () => `/api/classes/${cc.otherTeachersClassId}/export`, expect: ownOnly(200) },
+  // Adding a student who is already a member changes nothing.
+  { method: 'post', route: '/api/classes/{id}/members', path: () => `/api/classes/${cc.ownClassId}/members`, body: () => ({ studentId: cc.ownStudentId }), expect: staff(200, 404) },
+  { method: 'post', route: '/api/classes/{id}/members', path: () => `/api/classes/${cc.otherTeachersClassId}/members`, body: () => ({ studentId: cc.otherTeachersStudentId }), expect: ownOnly(200) },
+  {
+    method: 'delete',
+    route: '/api/classes/{id}/members/{studentId}',
+    path: (_c, caller) => `/api/classes/${cc.removalClassId}/members/${cc.removable[caller === 'teacher' ? 'teacher' : 'admin']}`,
+    expect: staff(204, 404),
+  },
+  { method: 'get', route: '/api/students', path: () => '/api/students?search=KL10', expect: staff(200) },
+  { method: 'patch', route: '/api/students/{id}', path: () => `/api/students/${cc.ownStudentId}`, body: () => ({ active: true }), expect: staff(200, 404) },
+  { method: 'patch', route: '/api/students/{id}', path: () => `/api/students/${cc.otherTeachersStudentId}`, body: () => ({ active: true }), expect: ownOnly(200) },
+  // Public link routes: an unknown link answers 400 to anyone; "forgot password" always 202.
+  { method: 'post', route: '/api/account/link', path: () => '/api/account/link', body: () => ({ token: FAKE_TOKEN }), expect: all(400) },
+  { method: 'post', route: '/api/account/accept-invitation', path: () => '/api/account/accept-invitation', body: () => ({ token: FAKE_TOKEN, password: 'a-long-enough-password' }), expect: all(400) },
+  { method: 'post', route: '/api/account/reset-password', path: () => '/api/account/reset-password', body: () => ({ token: FAKE_TOKEN, password: 'a-long-enough-password' }), expect: all(400) },
+  { method: 'post', route: '/api/account/forgot-password', path: () => '/api/account/forgot-password', body: (_c, caller) => ({ email: `nobody.${caller}@demo.example` }), expect: all(202) },
+  { method: 'post', route: '/api/account/consent/request', path: () => '/api/account/consent/request', body: () => ({ token: FAKE_TOKEN }), expect: all(400) },
+  {
+    method: 'post',
+    route: '/api/account/consent',
+    path: () => '/api/account/consent',
+    body: () => ({ token: FAKE_TOKEN, answers: [{ studentId: '00000000-0000-4000-8000-000000000000', consentResultsEmail: true, consentRecordings: false }] }),
+    expect: all(400),
+  },
+  { method: 'get', route: '/api/dev/outbox', path: () => '/api/dev/outbox', expect: adminOnly(200) },
+];
+
 // ---- The marking desk (issue 6) ---------------------------------------------------------------
 // Examiners only, and only the slots they mark: a slot or sheet of another examiner is not there
 // (404). Two sittings of their own this evening (other rooms), so the demo sitting stays as seeded.
@@ -397,6 +478,7 @@ const ROWS: Row[] = [
     expect: adminOnly(200, 404),
   },
   ...TEACHING_ROWS,
+  ...CLASS_ROWS,
   ...SITTING_ROWS,
   ...MARKING_ROWS,
 ];
@@ -412,6 +494,7 @@ describe('role matrix', () => {
     const other = await tokenFor(EMAIL.otherOrgAdmin);
     const me = await api().get('/api/auth/me').set('Authorization', `Bearer ${other}`);
     ctx.otherOrgId = me.body.activeOrganisationId;
+    await prepareClasses();
     await prepareTeaching();
     await prepareSittings();
     await prepareMarking();
