@@ -316,6 +316,28 @@ describe('the marking desk', () => {
     );
   });
 
+  it('applies the candidate’s approved substitutions to the draw (hands separately)', async () => {
+    const [free] = (await t.db.query(
+      `SELECT s.id, s.student_id FROM slots s LEFT JOIN slot_draws d ON d.slot_id = s.id WHERE s.sitting_id = $1 AND d.id IS NULL ORDER BY s.position LIMIT 1`,
+      [sitting.id],
+    )) as { id: string; student_id: string }[];
+    const put = await t
+      .http()
+      .put(`/api/students/${free!.student_id}/access-arrangement`)
+      .set(auth(await signIn(t, 'admin@demo.example')))
+      .send({
+        extraTimePercent: 0,
+        restBreakMinutes: 0,
+        substitutions: [{ type: 'hands_separately' }],
+      });
+    expect(put.status, JSON.stringify(put.body)).toBe(200);
+    const desk = await start(free!.id);
+    expect(desk.requests.some((r) => r.hands === 'HT')).toBe(false);
+    const split = desk.requests.filter((r) => r.substitution?.types.includes('hands_separately'));
+    expect(split.length).toBeGreaterThan(0);
+    expect(split.every((r) => r.substitution!.original.hands === 'HT')).toBe(true);
+  });
+
   it('records a changed request with its reason', async () => {
     const slotId = sitting.slots.find((s) => s.position === 4)!.id;
     const desk = await start(slotId);
