@@ -146,12 +146,21 @@ function CommentField({
       sheet.set(cell, value);
     }
   };
-  useEffect(
-    () => () => {
-      if (timer.current) clearTimeout(timer.current);
-    },
-    [],
-  );
+  // Text typed in the last moments must not wait for the pause: it is queued when the page is
+  // hidden or reloaded, and when the field goes away (the examiner switches phase).
+  const latest = useRef(text);
+  const flushLatest = useRef(() => {});
+  useEffect(() => {
+    flushLatest.current = () => flush(latest.current);
+  });
+  useEffect(() => {
+    const onHide = () => flushLatest.current();
+    window.addEventListener('pagehide', onHide);
+    return () => {
+      window.removeEventListener('pagehide', onHide);
+      flushLatest.current();
+    };
+  }, []);
   return (
     <label className="sm-desk-comment">
       <span>{label}</span>
@@ -164,6 +173,7 @@ function CommentField({
         maxLength={2000}
         onChange={(e) => {
           const v = e.target.value;
+          latest.current = v;
           setText(v);
           if (timer.current) clearTimeout(timer.current);
           timer.current = setTimeout(() => flush(v), 800);
