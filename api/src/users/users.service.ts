@@ -8,6 +8,9 @@ import { hashPassword } from '../auth/passwords.js';
 import { conflict } from '../common/errors.js';
 import { RequestContext } from '../common/request-context.js';
 import { ScopedRepository } from '../common/scoped-repository.js';
+import { InvitationsService } from '../invitations/invitations.service.js';
+import { MailService } from '../mail/mail.service.js';
+import { Organisation } from '../organisations/entities/organisation.entity.js';
 import { Membership } from './entities/membership.entity.js';
 import { Person } from './entities/person.entity.js';
 import { toUserRow } from './users.mapper.js';
@@ -23,6 +26,8 @@ export class UsersService {
     @InjectDataSource() private readonly db: DataSource,
     private readonly audit: AuditService,
     private readonly tokens: TokenService,
+    private readonly invitations: InvitationsService,
+    private readonly mail: MailService,
   ) {
     this.memberships = new ScopedRepository(membershipRepo, 'person');
   }
@@ -43,9 +48,10 @@ export class UsersService {
   }
 
   async create(input: CreateUserInput): Promise<UserRow> {
-    return this.db.transaction(async (em) => {
+    const row = await this.db.transaction(async (em) => {
       const memberships = this.memberships.withManager(em);
       let person = await em.findOne(Person, { where: { email: input.email } });
+      const isNew = !person;
       if (person) {
         const existing = await memberships.findOne({ where: { personId: person.id } });
         if (existing) throw conflict('This e-mail address already belongs to someone in your organisation.', [
@@ -65,9 +71,29 @@ export class UsersService {
         { action: 'member.created', entity: 'membership', entityId: m.id, after: { email: input.email, roles: input.roles } },
         em,
       );
+      // Without a password the person is invited by e-mail to choose one (a one-time link),
+      // written in this transaction and sent after commit.
+      if (isNew && !input.password) {
+        const org = await em.findOneByOrFail(Organisation, { id: m.organisationId });
+        const [link] = await this.invitations.createLinks(em, [
+          { purpose: 'invitation', personId: person.id, organisationId: m.organisationId, guardianEmail: null },
+        ]);
+        await this.mail.enqueue(em, [
+          {
+            organisationId: m.organisationId,
+            kind: 'invitation',
+            toAddress: person.email,
+            toName: person.displayName,
+            data: { organisationName: org.name, displayName: person.displayName },
+            accountTokenId: link!.id,
+          },
+        ]);
+      }
       m.person = person;
       return toUserRow(m);
     });
+    this.mail.afterCommit();
+    return row;
   }
 
   async update(personId: string, input: UpdateUserInput): Promise<UserRow> {

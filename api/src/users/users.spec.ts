@@ -43,6 +43,23 @@ describe('people admin', () => {
     expect(await signIn(t, 'new.teacher@demo.example', 'a-long-enough-password')).toMatch(/^ey/);
   });
 
+  it('a person added without a password is sent an invitation after commit', async () => {
+    const res = await t.http().post('/api/users').set(auth(admin)).send({ email: 'invited.examiner@demo.example', displayName: 'Ines Fairlie', roles: ['examiner'] });
+    expect(res.status).toBe(201);
+    const mail = await t.db.query(`SELECT kind, to_address, account_token_id FROM outbound_mail WHERE to_address = 'invited.examiner@demo.example'`);
+    expect(mail).toHaveLength(1);
+    expect(mail[0]).toMatchObject({ kind: 'invitation' });
+    expect(mail[0].account_token_id).toBeTruthy();
+    // someone who already has a sign-in at another school is added without a new invitation
+    const fernhill = await signIn(t, 'admin@fernhill.example');
+    const elsewhere = await t.http().post('/api/users').set(auth(fernhill)).send({ email: 'two.schools@fernhill.example', displayName: 'Una Brady', roles: ['teacher'], password: 'a-long-enough-password' });
+    expect(elsewhere.status).toBe(201);
+    const again = await t.http().post('/api/users').set(auth(admin)).send({ email: 'two.schools@fernhill.example', displayName: 'Una Brady', roles: ['examiner'] });
+    expect(again.status).toBe(201);
+    const none = await t.db.query(`SELECT 1 FROM outbound_mail WHERE to_address = 'two.schools@fernhill.example'`);
+    expect(none).toHaveLength(0);
+  });
+
   it('refuses a short password and an unknown role', async () => {
     const short = await t.http().post('/api/users').set(auth(admin)).send({ email: 'x@demo.example', displayName: 'X', roles: ['teacher'], password: 'short' });
     expect(short.status).toBe(400);

@@ -9,6 +9,8 @@ import { ApiError } from '@/lib/api-client';
 import { FieldError } from '@/components/FieldError';
 import { useLogin } from '../api/login';
 import { Alert } from '@/components/Alert';
+import { Link } from 'react-router-dom';
+import { paths } from '@/config/paths';
 
 type LoginFields = z.input<typeof loginSchema>;
 
@@ -104,6 +106,9 @@ export function SignInForm() {
         disabled={login.isPending || waitSeconds > 0}
         className="sm-form-submit"
       />
+      <p className="sm-muted">
+        <Link to={paths.forgotPassword.href()}>Forgotten your password?</Link>
+      </p>
     </form>
   );
 }

@@ -22,6 +22,13 @@ async function fillAndSubmit(email: string, password: string) {
 }
 
 describe('sign-in page', () => {
+  it('offers a way to choose a new password', async () => {
+    mockApi({});
+    renderApp('/sign-in', null);
+    const link = await screen.findByRole('link', { name: 'Forgotten your password?' });
+    expect(link).toHaveAttribute('href', '/account/forgot-password');
+  });
+
   it('checks the fields with the shared login rules before asking the server', async () => {
     const api = mockApi({});
     renderApp('/sign-in', null);
