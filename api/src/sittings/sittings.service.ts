@@ -719,11 +719,6 @@ export class SittingsService {
     });
   }
 
-  /** For the marking desk and Today: the sittings an examiner marks on a date. */
-  async examinerSittingsOn(date: string): Promise<SittingSummary[]> {
-    return (await this.list({ from: date, to: date })).filter((s) => s.status !== 'draft');
-  }
-
   // ---------- the machinery of a change ----------
 
   /**
