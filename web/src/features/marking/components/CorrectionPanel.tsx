@@ -30,16 +30,16 @@ export function CorrectionPanel({ desk, sheetId }: { desk: DeskView; sheetId: st
           );
         }}
       >
-        <label>
-          Mark
-          <select value={cell} onChange={(e) => setCell(e.target.value)}>
+        <span className="sm-desk-change__field">
+          <label htmlFor={`correct-${sheetId}`}>Mark</label>
+          <select id={`correct-${sheetId}`} value={cell} onChange={(e) => setCell(e.target.value)}>
             {options.map((o) => (
               <option key={o.cell} value={o.cell}>
                 {o.label}
               </option>
             ))}
           </select>
-        </label>
+        </span>
         <label>
           New mark{' '}
           <input
