@@ -15,6 +15,16 @@ import { listCaughtMail, waitForCaughtMail } from '../mail-catcher/mailbox.js';
 
 const auth = (token: string) => ({ Authorization: `Bearer ${token}` });
 
+/** The sender records the Message-ID just after the catcher stores the message. */
+async function waitForSent(t: TestApp, messageId: string | null | undefined): Promise<void> {
+  for (let i = 0; i < 50; i++) {
+    const rows = (await t.db.query(`SELECT 1 FROM sitting_mail WHERE message_id = $1`, [messageId])) as unknown[];
+    if (rows.length) return;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`no sitting_mail row recorded message ${messageId}`);
+}
+
 describe('sittings', () => {
   let t: TestApp;
   let dir: string;
@@ -306,6 +316,13 @@ describe('sittings', () => {
       const ev = new ICAL.Event(new ICAL.Component(ICAL.parse(ics)).getFirstSubcomponent('vevent')!);
       expect(ev.startDate.toJSDate().toISOString()).toBe('2026-12-08T09:00:00.000Z');
       expect(ev.summary).toBe('Examining: Grade 3 mock');
+
+      // The admin's Outbox lists the invitation the catcher received, with its kind.
+      await waitForSent(t, mail.messageId);
+      const outbox = await http().get('/api/dev/outbox').set(auth(tok.admin!));
+      expect(outbox.status).toBe(200);
+      const item = (outbox.body.items as { id: string; kind: string }[]).find((i) => i.id === mail.id);
+      expect(item?.kind).toBe('sitting_invitation');
     });
 
     it('later edits to the list and the band policy never change the sitting', async () => {

@@ -66,7 +66,7 @@ export interface OutboxItem {
   text: string;
   /** The HTML part as sent; shown sandboxed. */
   html: string | null;
-  kind: 'invitation' | 'guardian_notice' | 'password_reset';
+  kind: 'invitation' | 'guardian_notice' | 'password_reset' | 'sitting_invitation' | 'sitting_change' | 'sitting_cancellation';
   status: string;
   attempts: number;
 }

@@ -14,6 +14,9 @@ const KIND: Record<OutboxItem['kind'], string> = {
   invitation: 'Invitation',
   guardian_notice: 'Guardian notice',
   password_reset: 'Password reset',
+  sitting_invitation: 'Sitting invitation',
+  sitting_change: 'Sitting change',
+  sitting_cancellation: 'Sitting cancelled',
 };
 
 const formatReceived = (iso: string, timeZone: string) =>
