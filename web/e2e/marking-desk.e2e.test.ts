@@ -121,6 +121,17 @@ describe('the examiner marks a candidate at the desk', () => {
     expect(desk.sheet?.status).toBe('submitted');
     const stored = new Map(desk.sheet!.cells.map((c) => [c.cell, c.value]));
     expect(Object.fromEntries(stored)).toEqual(Object.fromEntries(expected));
+
+    // A later change is a correction with a reason; the API then holds the corrected mark.
+    const firstMark = [...expected.keys()].find((k) => k.startsWith('mark:'))!;
+    await page.getByText('Correct a mark').click();
+    await page.getByLabel('Mark', { exact: true }).selectOption(firstMark);
+    await page.getByLabel('New mark').fill('1');
+    await page.getByLabel('Reason').fill('Misheard the last octave');
+    await page.getByRole('button', { name: 'Record correction' }).click();
+    await page.getByText('Correction recorded with its reason.').waitFor();
+    const after = await deskFromApi(slotId);
+    expect(after.sheet!.cells.find((c) => c.cell === firstMark)?.value).toBe(1);
     expect(s.problems).toEqual([]);
   });
 });
