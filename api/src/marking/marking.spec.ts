@@ -371,4 +371,16 @@ describe('the marking desk', () => {
       ).status,
     ).toBe(400);
   });
+
+  it('a candidate taken early: once started on the desk, the slot can be completed before its planned time', async () => {
+    const previous = process.env.STAVEMARK_NOW;
+    process.env.STAVEMARK_NOW = '2026-12-01T07:00:00Z'; // before the sitting's 09:30 start
+    try {
+      const started = sitting.slots.find((s) => s.position === 4)!.id; // opened on the desk above
+      const ok = await t.http().post(`/api/slots/${started}/outcome`).set(auth(examiner)).send({ outcome: 'completed' });
+      expect(ok.status, JSON.stringify(ok.body)).toBe(200);
+    } finally {
+      process.env.STAVEMARK_NOW = previous;
+    }
+  });
 });

@@ -613,7 +613,12 @@ export class SittingsService {
         throw conflict(s.status === 'draft' ? 'Schedule the sitting before recording outcomes.' : 'Results are published; outcomes can no longer change.');
       }
       if (input.outcome !== 'withdrawn' && now() < slot.startsAt) {
-        throw conflict(`${nameOf(slot.student!)}'s slot starts at ${clockOf(slot.startsAt, s.timeZone)} on ${s.date}; only a withdrawal can be recorded before then.`);
+        // A candidate may be taken early: once an examiner has started the slot on the marking
+        // desk (a mark sheet exists), it has begun, whatever the planned time.
+        const started = ((await em.query(`SELECT 1 FROM mark_sheets WHERE slot_id = $1 LIMIT 1`, [slot.id])) as unknown[]).length > 0;
+        if (!started) {
+          throw conflict(`${nameOf(slot.student!)}'s slot starts at ${clockOf(slot.startsAt, s.timeZone)} on ${s.date}; only a withdrawal can be recorded before then.`);
+        }
       }
       const before = { outcome: slot.outcome, note: slot.outcomeNote };
       slot.outcome = input.outcome;
