@@ -12,7 +12,7 @@ import type {
 import { AuditEvent } from '../audit/entities/audit-event.entity.js';
 import { hashPassword } from '../auth/passwords.js';
 import { TokenService } from '../auth/token.service.js';
-import { bulkInsert } from '../classes/bulk-sql.js';
+import { bulkInsert } from '../common/bulk-sql.js';
 import { now } from '../common/clock.js';
 import { invalid } from '../common/errors.js';
 import { ENV } from '../config/config.module.js';

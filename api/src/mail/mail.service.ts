@@ -1,6 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import type { EntityManager } from 'typeorm';
-import { bulkInsert } from '../classes/bulk-sql.js';
+import { bulkInsert } from '../common/bulk-sql.js';
 import type { MailKind } from './entities/outbound-mail.entity.js';
 import { MailQueue } from './mail-queue.js';
 import type { MailData } from './templates.js';

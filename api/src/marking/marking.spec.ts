@@ -29,7 +29,7 @@ describe('the marking desk', () => {
     cell: string,
     value: unknown,
     baseVersion: number,
-    changeId = randomUUID(),
+    changeId: string = randomUUID(),
     token = examiner,
   ) =>
     t

@@ -8,7 +8,7 @@ import { InjectRepository } from '@nestjs/typeorm';
 import nodemailer, { type Transporter } from 'nodemailer';
 import PgBoss from 'pg-boss';
 import type { EntityManager, Repository } from 'typeorm';
-import { bulkInsert } from '../classes/bulk-sql.js';
+import { bulkInsert } from '../common/bulk-sql.js';
 import { ENV } from '../config/config.module.js';
 import type { Env } from '../config/env.js';
 import { SittingMail } from './entities/sitting-mail.entity.js';

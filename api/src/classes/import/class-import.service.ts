@@ -13,7 +13,7 @@ import { MailService, type NewMail } from '../../mail/mail.service.js';
 import { Organisation } from '../../organisations/entities/organisation.entity.js';
 import { Guardian } from '../../students/entities/guardian.entity.js';
 import { Student } from '../../students/entities/student.entity.js';
-import { bulkInsert } from '../bulk-sql.js';
+import { bulkInsert } from '../../common/bulk-sql.js';
 import { ClassGroup } from '../entities/class-group.entity.js';
 import { CsvFileError, parseClassList } from './class-list-csv.js';
 import { checkRecord, type CheckedRow } from './row-checks.js';
