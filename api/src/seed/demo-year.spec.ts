@@ -142,6 +142,22 @@ describe('the demo year of marks', () => {
     expect(rows.filter((r) => r.outcome === 'withdrawn')).toHaveLength(1);
   });
 
+  it('has a result for every completed slot, released for the published sittings only', async () => {
+    const rows = (await ds.query(`
+      SELECT st.status, count(sl.id)::int AS completed, count(r.id)::int AS results, count(r.released_at)::int AS released
+        FROM slots sl JOIN sittings st ON st.id = sl.sitting_id LEFT JOIN results r ON r.slot_id = sl.id
+       WHERE st.status IN ('published', 'marking_closed') AND sl.outcome = 'completed' GROUP BY st.status`)) as {
+      status: string;
+      completed: number;
+      results: number;
+      released: number;
+    }[];
+    const by = Object.fromEntries(rows.map((r) => [r.status, r]));
+    expect(by['published']!.results).toBe(by['published']!.completed);
+    expect(by['published']!.released).toBe(by['published']!.completed);
+    expect(by['marking_closed']).toMatchObject({ results: by['marking_closed']!.completed, released: 0 });
+  });
+
   it('holds at least 30 double-marked candidates in the current term (enough to judge agreement)', async () => {
     const [row] = (await ds.query(`
       SELECT count(*)::int AS n FROM slots sl JOIN sittings st ON st.id = sl.sitting_id

@@ -24,12 +24,13 @@ import {
   type SlotOutcome,
 } from '@stavemark/shared';
 import { bulkInsert } from '../common/bulk-sql.js';
+import { writeSubmittedSheet } from '../marking/seed-sheets.js';
 import { RequirementListVersion } from '../requirement-lists/entities/requirement-list-version.entity.js';
 import { toLineView } from '../requirement-lists/requirement-lists.mapper.js';
 import { candidateMinutes, paperMinutes, planDay } from '../sittings/day-plan.js';
 import { spreadIndices } from '../sittings/double-marking.js';
+import { ResultsService } from '../results/results.service.js';
 import { localToInstant } from '../sittings/zoned-time.js';
-import { writeSubmittedSheets, type PlannedSheet } from './demo-sheets.js';
 
 const PRIYA = 'examiner@demo.example';
 const OTTILIE = 'ottilie.brandt@demo.example';
@@ -193,6 +194,15 @@ export function yearSittingTitle(s: YearSitting, date: string): string {
   const grade = s.list === 'grade-5' ? 5 : 3;
   // Class first, so no title contains another's (today's is "Grade 5 mock — Thursday Seniors").
   return `${s.className} — Grade ${grade} mock, ${Number(date.slice(8, 10))} ${MONTHS[Number(date.slice(5, 7)) - 1]}`;
+}
+
+interface PlannedSheet {
+  slotId: string;
+  examinerMembershipId: string;
+  role: 'first' | 'second';
+  submittedAt: Date;
+  /** Cell name (`mark:0:evenness`, `flag:1:slip`, `comment:overall`) → value. */
+  cells: Record<string, CellValue>;
 }
 
 interface LoadedList {
@@ -494,7 +504,7 @@ export async function seedDemoYear(em: EntityManager, organisationId: string, to
     const makeSheet = (who: string, role: 'first' | 'second', attempt: number) => {
       const email = people.find((x) => x.id === who)!.email;
       const own = generator(`${sp.key}|${email}|${attempt}`);
-      const cells: Record<string, CellValue> = { outcome: 'completed' };
+      const cells: Record<string, CellValue> = {};
       const sums = new Map<string, { m: number; max: number }>();
       let got = 0;
       let max = 0;
@@ -520,9 +530,8 @@ export async function seedDemoYear(em: EntityManager, organisationId: string, to
       });
       const fractions = new Map([...sums.entries()].map(([k, v]) => [k, v.m / v.max]));
       cells['comment:overall'] = overallComment(fractions, (100 * got) / max);
-      const startedAt = new Date(sp.startsAt.getTime() + (role === 'first' ? 0 : 30_000));
       const submittedAt = new Date(sp.endsAt.getTime() + (role === 'first' ? 0 : 4 * 60_000));
-      return { slotId: idOf(sp), examinerMembershipId: who, role, startedAt, submittedAt, cells };
+      return { slotId: idOf(sp), examinerMembershipId: who, role, submittedAt, cells };
     };
     const firstSheet = makeSheet(sp.first, 'first', 0);
     sheets.push(firstSheet);
@@ -557,7 +566,31 @@ export async function seedDemoYear(em: EntityManager, organisationId: string, to
     ],
     draws,
   );
-  await writeSubmittedSheets(em, organisationId, sheets);
+  for (const sh of sheets) {
+    const pick = (prefix: string) => Object.fromEntries(Object.entries(sh.cells).filter(([k]) => k.startsWith(prefix)));
+    await writeSubmittedSheet(em, {
+      slot: sh.slotId,
+      examinerMembershipId: sh.examinerMembershipId,
+      role: sh.role,
+      marks: pick('mark:') as Record<string, number>,
+      flags: pick('flag:') as Record<string, number>,
+      comments: Object.fromEntries(Object.entries(pick('comment:')).map(([k, v]) => [k.slice('comment:'.length), String(v)])),
+      submittedAt: sh.submittedAt,
+    });
+  }
+
+  // Results as marking closed them, and released to students and guardians a week after each
+  // published sitting; the latest sitting's stay unreleased until moderation is done.
+  const results = new ResultsService(em.connection);
+  for (const p of todo) await results.computeForSitting(sittingId.get(p.title)!, em);
+  const releaser = people.find((x) => x.email === 'teacher@demo.example');
+  const published = todo.filter((p) => p.s.status === 'published').map((p) => sittingId.get(p.title));
+  await em.query(
+    `UPDATE results r SET released_at = (s.date + 7)::timestamp AT TIME ZONE s.time_zone + interval '17 hours',
+            released_by_person_id = (SELECT person_id FROM memberships WHERE id = $2)
+       FROM sittings s WHERE s.id = r.sitting_id AND r.sitting_id = ANY($1::uuid[])`,
+    [published, releaser!.id],
+  );
   return todo.length;
 }
 
