@@ -178,12 +178,10 @@ export class VersionedDocuments<D extends DocumentRow, V extends VersionRow, B> 
   createVersion(documentId: string, body: B): Promise<string> {
     return this.db.transaction(async (em) => {
       // Locking the document row serialises version numbering for it.
-      await this.spec.documents
-        .withManager(em)
-        .getOne({
-          where: { id: documentId } as FindOptionsWhere<D>,
-          lock: { mode: 'pessimistic_write' },
-        });
+      await this.spec.documents.withManager(em).getOne({
+        where: { id: documentId } as FindOptionsWhere<D>,
+        lock: { mode: 'pessimistic_write' },
+      });
       await this.spec.checkBody?.(em, body);
       const existing = await this.spec.versions
         .withManager(em)
@@ -214,12 +212,7 @@ export class VersionedDocuments<D extends DocumentRow, V extends VersionRow, B> 
   /** Replaces what a draft says. */
   async updateVersion(id: string, body: B): Promise<void> {
     await this.db.transaction(async (em) => {
-      const versions = this.spec.versions.withManager(em);
-      const v = await versions.getOne({
-        where: { id } as FindOptionsWhere<V>,
-        lock: { mode: 'pessimistic_write' },
-      });
-      this.assertEditable(v);
+      const { versions, v } = await this.lockEditable(em, id);
       await this.spec.checkBody?.(em, body);
       const before = await this.spec.snapshot(em, v);
       Object.assign(v, this.spec.columns(body));
@@ -231,12 +224,7 @@ export class VersionedDocuments<D extends DocumentRow, V extends VersionRow, B> 
 
   async publish(id: string): Promise<void> {
     await this.db.transaction(async (em) => {
-      const versions = this.spec.versions.withManager(em);
-      const v = await versions.getOne({
-        where: { id } as FindOptionsWhere<V>,
-        lock: { mode: 'pessimistic_write' },
-      });
-      this.assertEditable(v);
+      const { versions, v } = await this.lockEditable(em, id);
       await this.spec.checkPublish?.(em, v);
       v.status = 'published';
       v.publishedAt = now();
@@ -247,6 +235,20 @@ export class VersionedDocuments<D extends DocumentRow, V extends VersionRow, B> 
         version: v.version,
       });
     });
+  }
+
+  /** The version, locked for this transaction, provided it may still change. */
+  private async lockEditable(
+    em: EntityManager,
+    id: string,
+  ): Promise<{ versions: ScopedRepository<V>; v: V }> {
+    const versions = this.spec.versions.withManager(em);
+    const v = await versions.getOne({
+      where: { id } as FindOptionsWhere<V>,
+      lock: { mode: 'pessimistic_write' },
+    });
+    this.assertEditable(v);
+    return { versions, v };
   }
 
   private assertEditable(v: V): void {

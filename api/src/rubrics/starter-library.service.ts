@@ -64,8 +64,8 @@ export class StarterLibraryService {
 
   async catalogue(): Promise<StarterLibraryView> {
     const { rubrics, lists } = this.entries();
-    const adoptedRubrics = await this.adoptedRubrics();
-    const adoptedLists = await this.adoptedLists();
+    const adoptedRubrics = await this.adopted(this.rubrics, RubricVersion, 'rubric_id');
+    const adoptedLists = await this.adopted(this.lists, RequirementListVersion, 'list_id');
     return {
       rubrics: rubrics.map(({ key, file }) => ({
         key,
@@ -212,34 +212,22 @@ export class StarterLibraryService {
     return entry;
   }
 
-  private async adoptedRubrics(): Promise<Map<string, StarterAdoptedRef>> {
-    const rows = await this.rubrics
-      .qb('r')
-      .innerJoin(RubricVersion, 'v', 'v.rubric_id = r.id')
-      .select(['r.starter_key AS key', 'r.id AS id', 'v.name AS name'])
-      .andWhere('r.starterKey IS NOT NULL')
+  /** Starter key → the school's copy (its id and current name), for rubrics or lists. */
+  private async adopted(
+    documents: ScopedRepository<Rubric> | ScopedRepository<RequirementList>,
+    versionEntity: typeof RubricVersion | typeof RequirementListVersion,
+    parentColumn: 'rubric_id' | 'list_id',
+  ): Promise<Map<string, StarterAdoptedRef>> {
+    const rows = await (documents as ScopedRepository<Rubric>)
+      .qb('d')
+      .innerJoin(versionEntity, 'v', `v.${parentColumn} = d.id`)
+      .select(['d.starter_key AS key', 'd.id AS id', 'v.name AS name'])
+      .andWhere('d.starterKey IS NOT NULL')
       .orderBy('v.version', 'DESC')
       .getRawMany<{ key: string; id: string; name: string }>();
-    return firstByKey(rows);
+    // Rows come newest version first: the first per key carries the current name.
+    const out = new Map<string, StarterAdoptedRef>();
+    for (const row of rows) if (!out.has(row.key)) out.set(row.key, { id: row.id, name: row.name });
+    return out;
   }
-
-  private async adoptedLists(): Promise<Map<string, StarterAdoptedRef>> {
-    const rows = await this.lists
-      .qb('l')
-      .innerJoin(RequirementListVersion, 'v', 'v.list_id = l.id')
-      .select(['l.starter_key AS key', 'l.id AS id', 'v.name AS name'])
-      .andWhere('l.starterKey IS NOT NULL')
-      .orderBy('v.version', 'DESC')
-      .getRawMany<{ key: string; id: string; name: string }>();
-    return firstByKey(rows);
-  }
-}
-
-/** Rows newest version first: the first row per key carries the current name. */
-function firstByKey(
-  rows: { key: string; id: string; name: string }[],
-): Map<string, StarterAdoptedRef> {
-  const out = new Map<string, StarterAdoptedRef>();
-  for (const row of rows) if (!out.has(row.key)) out.set(row.key, { id: row.id, name: row.name });
-  return out;
 }

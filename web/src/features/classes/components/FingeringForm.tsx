@@ -167,7 +167,7 @@ export function FingeringForm({ defaultValues, title, onSave, onCancel }: Props)
   });
   const f = useWatch({ control }) as FingeringFields;
   // A change of span re-checks fingers already typed (their count depends on it).
-  const recheckDigits = f.digitsText ? (['digitsText'] as const) : [];
+  const recheckDigits: 'digitsText'[] = f.digitsText ? ['digitsText'] : [];
   const modal = isModalKind(f.kind);
   const inversions = inversionsFor(f.kind);
   let expected: number | null = null;

@@ -4,7 +4,6 @@ import {
   displayNoteName,
   isInvertibleKind,
   keyLabel,
-  type CountedKind,
   type Direction,
   type Inversion,
   type Mode,
@@ -42,7 +41,7 @@ export function inversionsFor(kind: RequestKind): Inversion[] {
 
 /** "D harmonic minor scale", "Chromatic scale starting on F♯", "Dominant seventh in A♭, first inversion". */
 export function fingeringTitle(f: {
-  kind: CountedKind;
+  kind: RequestKind;
   key: string;
   mode: Mode | null;
   inversion: Inversion | null;

@@ -10,10 +10,49 @@ import '../requirement-lists.css';
 import { activeRoles, useCurrentUser } from '@/lib/auth';
 import { notify } from '@/lib/notify';
 import { ErrorMessage } from '@/components/ErrorMessage';
-import { StarterLibraryDialog } from '@/components/StarterLibraryDialog';
+import {
+  AddFromStarterLibrary,
+  type UseAddStarterEntry,
+  type UseStarterEntries,
+} from '@/components/AddFromStarterLibrary';
 import { DocumentName, StatusFilter, VersionTag } from '@/components/VersionedDocument';
 import { useRequirementLists } from '../api/get-requirement-lists';
 import { useAdoptStarterList, useStarterLists } from '../api/starter-library';
+
+const useStarterEntries: UseStarterEntries = (open) => {
+  const q = useStarterLists(open);
+  return {
+    entries: q.data?.map((l) => ({
+      key: l.key,
+      title: l.name,
+      details: `Grade ${l.grade} · ${l.lineCount} lines · ${l.totalMarks} marks`,
+      openHref: l.adopted ? paths.requirementList.href(l.adopted.id) : null,
+    })),
+    error: q.error,
+  };
+};
+
+/** A list may bring starter rubrics with it; the notice names them. */
+const useAddStarterList: UseAddStarterEntry = () => {
+  const adopt = useAdoptStarterList();
+  return {
+    add: (key) =>
+      adopt.mutate(key, {
+        onSuccess: ({ version, rubricsAdded }) =>
+          notify({
+            severity: 'success',
+            summary: `“${version.name}” was added to your school${
+              rubricsAdded.length
+                ? `, with ${rubricsAdded.map((r) => `“${r.name}”`).join(' and ')}`
+                : ''
+            }.`,
+          }),
+      }),
+    adding: adopt.isPending ? (adopt.variables ?? null) : null,
+    error: adopt.error,
+    reset: adopt.reset,
+  };
+};
 
 export function RequirementListsPage() {
   const id = useId();
@@ -31,9 +70,6 @@ export function RequirementListsPage() {
   const grades = [...new Set((all.data ?? []).map((l) => l.grade))].sort((a, b) =>
     a.localeCompare(b, 'en', { numeric: true }),
   );
-  const [starterOpen, setStarterOpen] = useState(false);
-  const starter = useStarterLists(canEdit && starterOpen);
-  const adopt = useAdoptStarterList();
 
   return (
     <section aria-labelledby={`${id}-title`}>
@@ -47,15 +83,10 @@ export function RequirementListsPage() {
         </div>
         {canEdit && (
           <span className="sm-row-actions">
-            <Button
-              type="button"
-              icon="pi pi-book"
-              label="Add from the starter library"
-              severity="secondary"
-              onClick={() => {
-                adopt.reset();
-                setStarterOpen(true);
-              }}
+            <AddFromStarterLibrary
+              intro="Requirement lists written for Stavemark, published as version 1 in your school. The starter rubrics a list is marked with come with it when your school has none of them yet."
+              useEntries={useStarterEntries}
+              useAdd={useAddStarterList}
             />
             <Button
               type="button"
@@ -137,34 +168,6 @@ export function RequirementListsPage() {
           />
         </DataTable>
       </div>
-      <StarterLibraryDialog
-        visible={starterOpen}
-        onHide={() => setStarterOpen(false)}
-        header="Add from the starter library"
-        intro="Requirement lists written for Stavemark, published as version 1 in your school. The starter rubrics a list is marked with come with it when your school has none of them yet."
-        entries={starter.data?.map((l) => ({
-          key: l.key,
-          title: l.name,
-          details: `Grade ${l.grade} · ${l.lineCount} lines · ${l.totalMarks} marks`,
-          openHref: l.adopted ? paths.requirementList.href(l.adopted.id) : null,
-        }))}
-        loadError={starter.error}
-        adding={adopt.isPending ? (adopt.variables ?? null) : null}
-        addError={adopt.error}
-        onAdd={(key) =>
-          adopt.mutate(key, {
-            onSuccess: ({ version, rubricsAdded }) =>
-              notify({
-                severity: 'success',
-                summary: `“${version.name}” was added to your school${
-                  rubricsAdded.length
-                    ? `, with ${rubricsAdded.map((r) => `“${r.name}”`).join(' and ')}`
-                    : ''
-                }.`,
-              }),
-          })
-        }
-      />
     </section>
   );
 }

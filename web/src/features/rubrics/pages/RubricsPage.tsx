@@ -17,7 +17,11 @@ import { activeRoles, useCurrentUser } from '@/lib/auth';
 import { notify } from '@/lib/notify';
 import { Alert } from '@/components/Alert';
 import { ErrorMessage } from '@/components/ErrorMessage';
-import { StarterLibraryDialog } from '@/components/StarterLibraryDialog';
+import {
+  AddFromStarterLibrary,
+  type UseAddStarterEntry,
+  type UseStarterEntries,
+} from '@/components/AddFromStarterLibrary';
 import { DocumentName, StatusFilter, VersionTag } from '@/components/VersionedDocument';
 import { useRubrics } from '../api/get-rubrics';
 import { useAdoptStarterRubric, useStarterRubrics } from '../api/starter-library';
@@ -25,6 +29,33 @@ import { ImportRubricButton } from '../components/ImportRubricButton';
 import { KIND_LABELS } from '../components/labels';
 
 const kindOptions = REQUEST_KINDS.map((k) => ({ label: KIND_LABELS[k], value: k }));
+
+const useStarterEntries: UseStarterEntries = (open) => {
+  const q = useStarterRubrics(open);
+  return {
+    entries: q.data?.map((r) => ({
+      key: r.key,
+      title: r.name,
+      details: `For ${r.kinds.map((k) => KIND_LABELS[k].toLowerCase()).join(', ')} · ${r.criteriaCount} criteria`,
+      openHref: r.adopted ? paths.rubric.href(r.adopted.id) : null,
+    })),
+    error: q.error,
+  };
+};
+
+const useAddStarterRubric: UseAddStarterEntry = () => {
+  const adopt = useAdoptStarterRubric();
+  return {
+    add: (key) =>
+      adopt.mutate(key, {
+        onSuccess: (v) =>
+          notify({ severity: 'success', summary: `“${v.name}” was added to your school.` }),
+      }),
+    adding: adopt.isPending ? (adopt.variables ?? null) : null,
+    error: adopt.error,
+    reset: adopt.reset,
+  };
+};
 
 export function RubricsPage() {
   const id = useId();
@@ -34,9 +65,7 @@ export function RubricsPage() {
   // null: no filter (the dropdown shows its placeholder).
   const [kind, setKind] = useState<RequestKind | null>(null);
   const [status, setStatus] = useState<VersionStatus | null>(null);
-  const [starterOpen, setStarterOpen] = useState(false);
-  const starter = useStarterRubrics(canEdit && starterOpen);
-  const adopt = useAdoptStarterRubric();
+
   const [importError, setImportError] = useState<{
     message: string;
     details: { path: string; message: string }[];
@@ -77,15 +106,10 @@ export function RubricsPage() {
               }}
               onError={(message, details) => setImportError({ message, details })}
             />
-            <Button
-              type="button"
-              icon="pi pi-book"
-              label="Add from the starter library"
-              severity="secondary"
-              onClick={() => {
-                adopt.reset();
-                setStarterOpen(true);
-              }}
+            <AddFromStarterLibrary
+              intro="Rubrics written for Stavemark. An added rubric is published as version 1 in your school; edit it like any other (an edit makes a new version)."
+              useEntries={useStarterEntries}
+              useAdd={useAddStarterRubric}
             />
             <Button
               type="button"
@@ -166,27 +190,6 @@ export function RubricsPage() {
           />
         </DataTable>
       </div>
-      <StarterLibraryDialog
-        visible={starterOpen}
-        onHide={() => setStarterOpen(false)}
-        header="Add from the starter library"
-        intro="Rubrics written for Stavemark. An added rubric is published as version 1 in your school; edit it like any other (an edit makes a new version)."
-        entries={starter.data?.map((r) => ({
-          key: r.key,
-          title: r.name,
-          details: `For ${r.kinds.map((k) => KIND_LABELS[k].toLowerCase()).join(', ')} · ${r.criteriaCount} criteria`,
-          openHref: r.adopted ? paths.rubric.href(r.adopted.id) : null,
-        }))}
-        loadError={starter.error}
-        adding={adopt.isPending ? (adopt.variables ?? null) : null}
-        addError={adopt.error}
-        onAdd={(key) =>
-          adopt.mutate(key, {
-            onSuccess: (v) =>
-              notify({ severity: 'success', summary: `“${v.name}” was added to your school.` }),
-          })
-        }
-      />
     </section>
   );
 }
