@@ -183,6 +183,12 @@ const TEACHING_ROWS: Row[] = [
   { method: 'get', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.otherStudentId}/fingerings`, expect: { ...members(404), admin: 200 } },
   { method: 'post', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.ownStudentId}/fingerings`, body: fingeringBody, expect: editors(201) },
   { method: 'post', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.otherStudentId}/fingerings`, body: fingeringBody, expect: { ...editors(201), teacher: 404 } },
+
+  // The starter library: teachers and admins of any school; the demo school has every entry from
+  // the seed (409), the other school adds its first copy (201); examiners and students never.
+  { method: 'get', route: '/api/starter-library', path: () => '/api/starter-library', expect: editors(200, 200) },
+  { method: 'post', route: '/api/starter-library/rubrics', path: () => '/api/starter-library/rubrics', body: () => ({ key: 'passages' }), expect: editors(409, 201) },
+  { method: 'post', route: '/api/starter-library/requirement-lists', path: () => '/api/starter-library/requirement-lists', body: () => ({ key: 'grade-1' }), expect: editors(409, 201) },
 ];
 
 // ---- Classes, class-list import, students, account links and the Outbox (issue 4) --------------

@@ -78,6 +78,13 @@ export const routes: RouteObject[] = [
         },
       },
       {
+        path: paths.studentFingerings.path,
+        lazy: async () => {
+          const { StudentFingeringsPage } = await import('@/features/classes/pages/StudentFingeringsPage');
+          return { element: <RequireAuth roles={paths.studentFingerings.roles}><StudentFingeringsPage /></RequireAuth> };
+        },
+      },
+      {
         path: paths.outbox.path,
         lazy: async () => {
           const { OutboxPage } = await import('@/features/outbox/pages/OutboxPage');

@@ -15,6 +15,13 @@ export const paths = {
     href: (classId: string) => `/classes/${encodeURIComponent(classId)}`,
     roles: ['admin', 'teacher'],
   },
+  // A student's approved fingerings, reached from a class's members (design.md §5).
+  studentFingerings: {
+    path: '/classes/:classId/students/:studentId/fingerings',
+    href: (classId: string, studentId: string) =>
+      `/classes/${encodeURIComponent(classId)}/students/${encodeURIComponent(studentId)}/fingerings`,
+    roles: ['admin', 'teacher'],
+  },
   outbox: { path: '/outbox', href: () => '/outbox', roles: ['admin'] },
   // Public pages behind e-mailed links (the API's invitations/link-tokens.ts names the same paths).
   accountWelcome: { path: '/account/welcome', href: () => '/account/welcome', roles: ROLES },
