@@ -9,3 +9,5 @@ export * from './classes.js';
 export * from './invitations.js';
 export * from './sittings.js';
 export * from './marking.js';
+export * from './agreement.js';
+export * from './standardisation.js';
