@@ -27,6 +27,8 @@ import { SlotDraw } from '../marking/entities/slot-draw.entity.js';
 import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
 import { MarkCell } from '../marking/entities/mark-cell.entity.js';
 import { MarkChange } from '../marking/entities/mark-change.entity.js';
+import { StandardisationExercise } from '../standardisation/entities/standardisation-exercise.entity.js';
+import { StandardisationAttempt } from '../standardisation/entities/standardisation-attempt.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -59,4 +61,6 @@ export const entities = [
   MarkSheet,
   MarkCell,
   MarkChange,
+  StandardisationExercise,
+  StandardisationAttempt,
 ];
