@@ -21,6 +21,7 @@ import { OutboxModule } from './outbox/outbox.module.js';
 import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
 import { AgreementModule } from './agreement/agreement.module.js';
+import { StandardisationModule } from './standardisation/standardisation.module.js';
 
 @Module({
   imports: [
@@ -50,6 +51,7 @@ import { AgreementModule } from './agreement/agreement.module.js';
     SittingsModule,
     MarkingModule,
     AgreementModule,
+    StandardisationModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })
