@@ -189,6 +189,7 @@ export const routes: RouteObject[] = [
           [paths.agreement, () => import('@/features/agreement/pages/AgreementPage').then((m) => <m.AgreementPage />)],
           [paths.sittingAgreement, () => import('@/features/agreement/pages/AgreementPage').then((m) => <m.SittingAgreementPage />)],
           [paths.standardisation, () => import('@/features/standardisation/pages/ExercisesPage').then((m) => <m.ExercisesPage />)],
+          [paths.standardisationNew, () => import('@/features/standardisation/pages/NewExercisePage').then((m) => <m.NewExercisePage />)],
           [paths.standardisationExercise, () => import('@/features/standardisation/pages/ExercisePage').then((m) => <m.ExercisePage />)],
           [paths.standardisationDeviations, () => import('@/features/standardisation/pages/DeviationsPage').then((m) => <m.DeviationsPage />)],
         ] as const

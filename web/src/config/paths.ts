@@ -84,6 +84,7 @@ export const paths = {
     roles: ['admin', 'teacher', 'examiner'],
   },
   standardisation: { path: '/standardisation', href: () => '/standardisation', roles: ['admin', 'teacher', 'examiner'] },
+  standardisationNew: { path: '/standardisation/new', href: () => '/standardisation/new', roles: ['admin', 'teacher'] },
   standardisationExercise: {
     path: '/standardisation/exercises/:exerciseId',
     href: (exerciseId: string) => `/standardisation/exercises/${encodeURIComponent(exerciseId)}`,

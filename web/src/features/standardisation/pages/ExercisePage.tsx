@@ -8,6 +8,7 @@ import { formatPlainDate } from '@/lib/format';
 import { useExercise } from '../api/get-exercise';
 import { MarkingForm } from '../components/MarkingForm';
 import { Recording } from '../components/Recording';
+import { ReferenceEditor } from '../components/ReferenceEditor';
 import { Results } from '../components/Results';
 import '../standardisation.css';
 
@@ -47,7 +48,8 @@ export function ExercisePage() {
       {v.canManage && v.canAttempt === false && v.status === 'published' && (
         <p className="sm-muted">You can see the reference marks, so you do not mark this exercise yourself.</p>
       )}
-      {v.referenceMarks && <Results view={v} />}
+      {v.canManage && v.status === 'draft' && <ReferenceEditor view={v} />}
+      {v.referenceMarks && v.status === 'published' && <Results view={v} />}
     </section>
   );
 }

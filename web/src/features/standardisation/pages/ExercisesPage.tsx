@@ -12,6 +12,7 @@ import '../standardisation.css';
 export function ExercisesPage() {
   const me = useCurrentUser();
   const examiner = hasAnyRole(me, ['examiner']);
+  const writer = hasAnyRole(me, ['admin', 'teacher']);
   const exercises = useExercises();
   return (
     <section aria-labelledby="std-title">
@@ -22,13 +23,18 @@ export function ExercisesPage() {
             Reference performances with agreed marks. Mark each one on your own before the sitting; the reference appears once you submit.
           </p>
         </div>
-        {examiner && (
-          <div className="sm-row-actions">
+        <div className="sm-row-actions">
+          {examiner && (
             <Link className="p-button p-button-secondary" to={paths.standardisationDeviations.href()}>
               My deviation over time
             </Link>
-          </div>
-        )}
+          )}
+          {writer && (
+            <Link className="p-button" to={paths.standardisationNew.href()}>
+              New exercise
+            </Link>
+          )}
+        </div>
       </div>
       {exercises.isPending && <PageLoading />}
       {exercises.isError && <ErrorMessage error={exercises.error} what="the exercises" />}
