@@ -485,20 +485,20 @@ async function prepareAgreement(): Promise<void> {
   ok(await api().post(`/api/standardisation/exercises/${ac.attemptId}/publish`).set(teacher), 200);
 }
 
-const staff = (ok: number, otherOrg = 404): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: ok, student: 403, otherOrgAdmin: otherOrg });
+const markers = (ok: number, otherOrg = 404): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: ok, student: 403, otherOrgAdmin: otherOrg });
 const AGREEMENT_ROWS: Row[] = [
-  { method: 'get', route: '/api/agreement/scopes', path: () => '/api/agreement/scopes', expect: staff(200, 200) },
+  { method: 'get', route: '/api/agreement/scopes', path: () => '/api/agreement/scopes', expect: markers(200, 200) },
   // Today's sitting: planned by the demo teacher, Priya leads its panel.
-  { method: 'get', route: '/api/sittings/{id}/agreement', path: () => `/api/sittings/${sc.todayId}/agreement`, expect: staff(200) },
+  { method: 'get', route: '/api/sittings/{id}/agreement', path: () => `/api/sittings/${sc.todayId}/agreement`, expect: markers(200) },
   // Ottilie's panel only: Priya is not its lead examiner.
-  { method: 'get', route: '/api/sittings/{id}/agreement', path: () => `/api/sittings/${sc.unassignedId}/agreement`, expect: { ...staff(200), examiner: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/agreement', path: () => `/api/sittings/${sc.unassignedId}/agreement`, expect: { ...markers(200), examiner: 404 } },
   { method: 'get', route: '/api/terms/{id}/agreement', path: () => `/api/terms/${ac.termId}/agreement`, expect: planners(200) },
-  { method: 'get', route: '/api/standardisation/exercises', path: () => '/api/standardisation/exercises', expect: staff(200, 200) },
+  { method: 'get', route: '/api/standardisation/exercises', path: () => '/api/standardisation/exercises', expect: markers(200, 200) },
   // Another organisation's admin names a rubric version that is not theirs: refused as invalid.
   { method: 'post', route: '/api/standardisation/exercises', path: () => '/api/standardisation/exercises', body: (_c, caller) => exerciseBody(`Matrix new ${caller} ${seq++}`), expect: planners(201, 400) },
-  { method: 'get', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.demoExerciseId}`, expect: staff(200) },
+  { method: 'get', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.demoExerciseId}`, expect: markers(200) },
   // A draft is its author's (the demo teacher) and the admins'.
-  { method: 'get', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.draftId}`, expect: { ...staff(200), examiner: 404 } },
+  { method: 'get', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.draftId}`, expect: { ...markers(200), examiner: 404 } },
   { method: 'patch', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.draftId}`, body: () => ({ title: 'Matrix draft exercise' }), expect: planners(200) },
   // Published: fixed (409); it is not the demo teacher's to change at all (an admin wrote it).
   { method: 'patch', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.demoExerciseId}`, body: () => ({ title: 'Changed' }), expect: { ...planners(409), teacher: 404 } },
