@@ -20,6 +20,8 @@ import { StudentsModule } from './students/students.module.js';
 import { OutboxModule } from './outbox/outbox.module.js';
 import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
+import { StorageModule } from './storage/storage.module.js';
+import { ResultsModule } from './results/results.module.js';
 import { AgreementModule } from './agreement/agreement.module.js';
 import { StandardisationModule } from './standardisation/standardisation.module.js';
 
@@ -50,6 +52,8 @@ import { StandardisationModule } from './standardisation/standardisation.module.
     OutboxModule.forEnvironment(),
     SittingsModule,
     MarkingModule,
+    StorageModule,
+    ResultsModule,
     AgreementModule,
     StandardisationModule,
   ],

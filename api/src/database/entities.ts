@@ -27,6 +27,7 @@ import { SlotDraw } from '../marking/entities/slot-draw.entity.js';
 import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
 import { MarkCell } from '../marking/entities/mark-cell.entity.js';
 import { MarkChange } from '../marking/entities/mark-change.entity.js';
+import { Result } from '../results/entities/result.entity.js';
 import { StandardisationExercise } from '../standardisation/entities/standardisation-exercise.entity.js';
 import { StandardisationAttempt } from '../standardisation/entities/standardisation-attempt.entity.js';
 
@@ -61,6 +62,7 @@ export const entities = [
   MarkSheet,
   MarkCell,
   MarkChange,
+  Result,
   StandardisationExercise,
   StandardisationAttempt,
 ];

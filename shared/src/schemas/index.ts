@@ -9,5 +9,6 @@ export * from './classes.js';
 export * from './invitations.js';
 export * from './sittings.js';
 export * from './marking.js';
+export * from './results.js';
 export * from './agreement.js';
 export * from './standardisation.js';
