@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { api, tokenFor } from './e2e-support/api';
+import { wavFile } from './support/media-fixtures';
 
 /**
  * Every route × every caller → expected status (design.md §8). A new route must be added here:
@@ -479,9 +480,13 @@ async function prepareAgreement(): Promise<void> {
   const rubric = ok(await api().get(`/api/rubric-versions/${tc.publishedRubricVersionId}`).set(admin), 200) as { criteria: { key: string; maxMark: number }[] };
   ac.criteria = rubric.criteria;
   const create = async (title: string, marks = true, who = teacher) => (ok(await api().post('/api/standardisation/exercises').set(who).send(exerciseBody(title, marks)), 201) as { id: string }).id;
+  const attach = async (id: string, who = teacher) => ok(await api().post(`/api/standardisation/exercises/${id}/recording`).set(who).attach('file', wavFile({ seconds: 1 }), { filename: 'reference.wav' }), 200);
   ac.draftId = await create('Matrix draft exercise', false);
   ac.publishable = { admin: await create('Matrix publish A', true, admin), teacher: await create('Matrix publish T') };
+  await attach(ac.publishable.admin, admin);
+  await attach(ac.publishable.teacher);
   ac.attemptId = await create('Matrix attempt exercise');
+  await attach(ac.attemptId);
   ok(await api().post(`/api/standardisation/exercises/${ac.attemptId}/publish`).set(teacher), 200);
 }
 
@@ -502,6 +507,9 @@ const AGREEMENT_ROWS: Row[] = [
   { method: 'patch', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.draftId}`, body: () => ({ title: 'Matrix draft exercise' }), expect: planners(200) },
   // Published: fixed (409); it is not the demo teacher's to change at all (an admin wrote it).
   { method: 'patch', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.demoExerciseId}`, body: () => ({ title: 'Changed' }), expect: { ...planners(409), teacher: 404 } },
+  // Streamed to storage, typed from its bytes; the draft's author and admins only.
+  { method: 'post', route: '/api/standardisation/exercises/{id}/recording', path: () => `/api/standardisation/exercises/${ac.draftId}/recording`, file: () => ({ name: 'reference.wav', content: wavFile({ seconds: 1 }) }), expect: planners(200) },
+  { method: 'get', route: '/api/standardisation/exercises/{id}/recording-url', path: () => `/api/standardisation/exercises/${ac.demoExerciseId}/recording-url`, expect: markers(200) },
   { method: 'post', route: '/api/standardisation/exercises/{id}/publish', path: (_c, caller) => `/api/standardisation/exercises/${ac.publishable[editorOf(caller)]}/publish`, expect: planners(200) },
   { method: 'put', route: '/api/standardisation/exercises/{id}/attempt', path: () => `/api/standardisation/exercises/${ac.attemptId}/attempt`, body: () => ({ marks: [] }), expect: examinerOnly(200) },
   // A draft is not there for an examiner.

@@ -33,6 +33,11 @@ describe('standardisation: an examiner marks a reference performance blind', () 
     const before = await examiner.call<ExerciseView>('GET', `/standardisation/exercises/${new URL(page.url()).pathname.split('/').at(-1)}`);
     expect(before.referenceMarks).toBeNull();
     expect(before.othersMarks).toBeNull();
+    // The performance plays in the page from its signed address (metadata read by the browser).
+    const audio = page.getByLabel('Reference performance');
+    await audio.waitFor();
+    expect(await audio.getAttribute('src')).toMatch(/^\/api\/media\//);
+    await expect.poll(() => audio.evaluate((a) => (a as HTMLAudioElement).duration), { timeout: 15_000 }).toBeGreaterThan(5);
     // The tension criterion carries the health caution.
     expect(await page.getByText(/Persistent tension can contribute to playing-related pain/).count()).toBe(1);
 

@@ -1,10 +1,26 @@
 // The demo school's standardisation exercise (issue 7 §4): a synthesised D major scale (our own
-// sound, made in code), reference marks on the starter scales rubric, and two examiners' submitted
+// sound, made in code, kept in storage), reference marks on the starter scales rubric, and two examiners' submitted
 // attempts. Priya Halvorsen (examiner@demo.example) has not marked it yet, so the demo can.
+import { Readable } from 'node:stream';
 import type { EntityManager } from 'typeorm';
 import type { ExerciseMark } from '@stavemark/shared';
 import { StandardisationAttempt } from '../standardisation/entities/standardisation-attempt.entity.js';
 import { StandardisationExercise } from '../standardisation/entities/standardisation-exercise.entity.js';
+import { demoScalePerformance } from '../standardisation/reference-audio.js';
+import { LocalDiskDriver } from '../storage/local-disk-driver.js';
+import { wavDurationSeconds } from '../storage/media-types.js';
+import { DEFAULT_STORAGE_DIR } from '../storage/storage.module.js';
+
+/** One file for every seeding: the same synthesised sound, written once per storage folder. */
+export const DEMO_RECORDING_KEY = 'standardisation/demo/d-major-scale-reference.wav';
+
+async function storeRecording(): Promise<{ bytes: number; seconds: number | null }> {
+  const driver = new LocalDiskDriver(process.env.STORAGE_DIR ?? DEFAULT_STORAGE_DIR);
+  const { wav } = demoScalePerformance();
+  const there = await driver.stat(DEMO_RECORDING_KEY);
+  if (there?.size !== wav.length) await driver.write(DEMO_RECORDING_KEY, Readable.from([wav]));
+  return { bytes: wav.length, seconds: wavDurationSeconds(wav.subarray(0, 4100), wav.length) };
+}
 
 export const DEMO_EXERCISE_TITLE = 'D major scale — standardisation before the Grade 5 mock';
 
@@ -40,6 +56,8 @@ function dayAt(today: string, daysAgo: number, hour: number): Date {
 
 /** Seeds the exercise once (by title); returns its id. */
 export async function seedDemoStandardisation(em: EntityManager, organisationId: string, today: string): Promise<string> {
+  // The file first: a storage folder emptied since the last seeding gets it back.
+  const recording = await storeRecording();
   const existing = await em.findOne(StandardisationExercise, { where: { organisationId, title: DEMO_EXERCISE_TITLE } });
   if (existing) return existing.id;
   const one = async <T>(sql: string, params: unknown[]): Promise<T> => {
@@ -66,6 +84,10 @@ export async function seedDemoStandardisation(em: EntityManager, organisationId:
       rubricVersionId: rubric.id,
       requests: [{ title: 'D major scale', details: 'right hand, one octave, up and down, legato, quavers at crotchet = 88' }],
       referenceMarks: marksOf(REFERENCE),
+      recordingKey: DEMO_RECORDING_KEY,
+      recordingContentType: 'audio/wav',
+      recordingBytes: recording.bytes,
+      recordingDurationSeconds: recording.seconds,
       status: 'published',
       dueOn: today,
       createdByMembershipId: await membership('admin@demo.example'),

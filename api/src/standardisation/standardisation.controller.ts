@@ -1,5 +1,6 @@
-import { Controller, Get, HttpCode, Patch, Post, Put } from '@nestjs/common';
-import { ApiTags } from '@nestjs/swagger';
+import { Controller, Get, HttpCode, Patch, Post, Put, Req, Res } from '@nestjs/common';
+import { ApiBody, ApiConsumes, ApiTags } from '@nestjs/swagger';
+import type { Request, Response } from 'express';
 import {
   attemptMarksSchema,
   createExerciseSchema,
@@ -13,6 +14,7 @@ import {
 } from '@stavemark/shared';
 import { Route } from '../auth/auth.decorators.js';
 import { IdParam, ValidBody } from '../common/validation.js';
+import type { SignedMediaUrl } from '../storage/storage.service.js';
 import { StandardisationService } from './standardisation.service.js';
 
 const BLIND =
@@ -52,6 +54,31 @@ export class StandardisationController {
   @Route({ summary: 'Publish an exercise for examiners to mark', roles: ['admin', 'teacher'], owned: true, description: 'Every reference mark must be given (400 lists the missing ones); published already: 409.' })
   publish(@IdParam() id: string): Promise<ExerciseView> {
     return this.service.publish(id);
+  }
+
+  @Post('exercises/:id/recording')
+  @HttpCode(200)
+  @ApiConsumes('multipart/form-data')
+  @ApiBody({ schema: { type: 'object', required: ['file'], properties: { file: { type: 'string', format: 'binary' } } } })
+  @Route({
+    summary: 'Attach the reference performance (audio or video) to a draft exercise',
+    roles: ['admin', 'teacher'],
+    owned: true,
+    description: 'Multipart field `file`, streamed to storage; the type is read from the content (415 when it is not playable audio or video), 413 over 50 MB. A published exercise answers 409.',
+  })
+  uploadRecording(@IdParam() id: string, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<ExerciseView> {
+    return this.service.uploadRecording(id, req, res);
+  }
+
+  @Get('exercises/:id/recording-url')
+  @Route({
+    summary: 'A short-lived signed address to play the reference recording (HTTP range requests work)',
+    roles: ['admin', 'teacher', 'examiner'],
+    owned: true,
+    description: 'For whoever may see the exercise; 404 when none is attached.',
+  })
+  recordingUrl(@IdParam() id: string): Promise<SignedMediaUrl> {
+    return this.service.recordingUrl(id);
   }
 
   @Put('exercises/:id/attempt')

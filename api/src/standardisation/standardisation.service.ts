@@ -1,5 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
+import type { Request, Response } from 'express';
 import { DataSource, In, type EntityManager } from 'typeorm';
 import {
   KRIPPENDORFF_2004,
@@ -19,10 +20,15 @@ import { RequestContext, type Caller } from '../common/request-context.js';
 import { ScopedRepository } from '../common/scoped-repository.js';
 import { RubricVersion } from '../rubrics/entities/rubric-version.entity.js';
 import { toCriterion } from '../rubrics/rubrics.mapper.js';
+import { PLAYABLE_MEDIA, wavDurationSeconds } from '../storage/media-types.js';
+import { StorageService, type SignedMediaUrl } from '../storage/storage.service.js';
 import { Membership } from '../users/entities/membership.entity.js';
 import { checkMarks, deviationFrom, exerciseAgreement, poolCriteria } from './deviation.js';
 import { StandardisationAttempt } from './entities/standardisation-attempt.entity.js';
 import { StandardisationExercise } from './entities/standardisation-exercise.entity.js';
+
+/** 50 MB: a few minutes of WAV, or far longer compressed. */
+export const RECORDING_MAX_BYTES = 50 * 1024 * 1024;
 
 const has = (c: Caller, role: Caller['roles'][number]) => c.roles.includes(role);
 const sortMarks = (marks: readonly ExerciseMark[]) =>
@@ -39,6 +45,7 @@ export class StandardisationService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
     private readonly audit: AuditService,
+    private readonly storage: StorageService,
   ) {}
 
   private exercises(em: EntityManager) {
@@ -139,9 +146,10 @@ export class StandardisationService {
       const ex = await this.managed(em, id);
       if (ex.status === 'published') throw conflict('This exercise is already published.');
       const { criteria } = await this.criteriaOf(em, ex.rubricVersionId);
-      const problems = checkMarks(ex.referenceMarks, ex.requests.length, criteria, true);
-      if (problems.length)
-        throw invalid(`Give every reference mark before publishing: ${problems.length} missing.`, problems.map((p) => ({ ...p, path: p.path.replace(/^marks/, 'referenceMarks') })));
+      // Everything still missing at once, so the author fixes it in one go.
+      const problems = checkMarks(ex.referenceMarks, ex.requests.length, criteria, true).map((p) => ({ ...p, path: p.path.replace(/^marks/, 'referenceMarks') }));
+      if (!ex.recordingKey) problems.push({ path: 'recording', message: 'Attach the reference recording: examiners mark what they hear.' });
+      if (problems.length) throw invalid(`Not ready to publish: ${problems.length} thing(s) missing.`, problems);
       ex.status = 'published';
       ex.publishedAt = now();
       await this.exercises(em).save(ex);
@@ -185,6 +193,58 @@ export class StandardisationService {
     return this.view(id);
   }
 
+  // ---------- the reference recording ----------
+
+  /**
+   * Streams the uploaded performance to storage (type from its bytes, size limited), then files
+   * it on the draft; a recording it replaces is deleted after the change commits.
+   */
+  async uploadRecording(id: string, req: Request, res: Response): Promise<ExerciseView> {
+    const caller = RequestContext.requireCaller();
+    const check = async (em: EntityManager) => {
+      const ex = await this.managed(em, id);
+      if (ex.status !== 'draft') throw conflict('A published exercise is fixed: its recording cannot change.');
+      return ex;
+    };
+    await this.db.transaction(check);
+    const upload = await this.storage.receive(req, res, {
+      keyPrefix: `standardisation/${caller.organisationId}`,
+      maxBytes: RECORDING_MAX_BYTES,
+      accept: PLAYABLE_MEDIA,
+      what: 'a reference recording',
+    });
+    let replaced: string | null = null;
+    try {
+      await this.db.transaction(async (em) => {
+        const ex = await check(em);
+        replaced = ex.recordingKey;
+        Object.assign(ex, {
+          recordingKey: upload.key,
+          recordingContentType: upload.mime,
+          recordingBytes: upload.size,
+          recordingDurationSeconds: upload.mime === 'audio/wav' ? wavDurationSeconds(upload.head, upload.size) : null,
+        });
+        await this.exercises(em).save(ex);
+        await this.audit.record({ action: 'standardisation.recording_attached', entity: 'standardisation_exercise', entityId: ex.id, after: { key: upload.key, contentType: upload.mime, bytes: upload.size } }, em);
+      });
+    } catch (e) {
+      // Published or gone meanwhile: the new file has no owner, so it goes.
+      await this.storage.delete(upload.key);
+      throw e;
+    }
+    if (replaced) await this.storage.delete(replaced);
+    return this.view(id);
+  }
+
+  /** A short-lived address of the recording for whoever may see the exercise. */
+  async recordingUrl(id: string): Promise<SignedMediaUrl> {
+    return this.db.transaction(async (em) => {
+      const ex = await this.visible(em, id);
+      if (!ex.recordingKey || !ex.recordingContentType) throw notFound('recording');
+      return this.storage.signedUrl(ex.recordingKey, ex.recordingContentType);
+    });
+  }
+
   // ---------- reading ----------
 
   async list(): Promise<ExerciseSummary[]> {
@@ -203,7 +263,7 @@ export class StandardisationService {
           dueOn: ex.dueOn,
           rubricName: ex.rubricVersion?.name ?? 'Rubric',
           requests: ex.requests.length,
-          hasRecording: false,
+          hasRecording: ex.recordingKey !== null,
           publishedAt: ex.publishedAt?.toISOString() ?? null,
           createdBy: ex.createdBy?.person?.displayName ?? null,
           canManage: this.manages(caller, ex),
@@ -250,7 +310,9 @@ export class StandardisationService {
         createdBy: ex.createdBy?.person?.displayName ?? null,
         rubric: { versionId: version.id, name: version.name, version: version.version, criteria },
         requests: ex.requests,
-        recording: null,
+        recording: ex.recordingContentType
+          ? { contentType: ex.recordingContentType, bytes: ex.recordingBytes ?? 0, durationSeconds: ex.recordingDurationSeconds }
+          : null,
         canManage: manager,
         canAttempt: this.mayAttempt(caller, ex),
         referenceMarks: revealed ? ex.referenceMarks : null,

@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { DeviationHistory, ExerciseMark, ExerciseSummary, ExerciseView } from '@stavemark/shared';
 import { createTestApp, signIn, type TestApp } from '../../test/support/test-app.js';
+import { binary, textFile, wavFile } from '../../test/support/media-fixtures.js';
 import { DEMO_EXERCISE_TITLE } from '../seed/demo-standardisation.js';
 
 const auth = (token: string) => ({ Authorization: `Bearer ${token}` });
@@ -61,6 +62,25 @@ describe('standardisation', () => {
     expect((await get(demo.id, 'priya')).body).toMatchObject({ referenceMarks: null, othersMarks: null });
   });
 
+  it('the demo’s synthesised recording plays through a short-lived signed address, in ranges', async () => {
+    const v = (await get(demo.id, 'priya')).body as ExerciseView;
+    expect(v.recording?.contentType).toBe('audio/wav');
+    expect(v.recording!.durationSeconds!).toBeGreaterThan(5);
+    const signed = await t.http().get(`/api/standardisation/exercises/${demo.id}/recording-url`).set(auth(tok.priya!));
+    expect(signed.status).toBe(200);
+    expect(signed.body.url).toMatch(/^\/api\/media\//);
+    const whole = await t.http().get(signed.body.url).buffer(true).parse(binary);
+    expect(whole.status).toBe(200);
+    expect(whole.headers['content-type']).toMatch(/audio\/wav/);
+    expect((whole.body as Buffer).subarray(0, 4).toString('latin1')).toBe('RIFF');
+    expect((whole.body as Buffer).length).toBe(v.recording!.bytes);
+    const part = await t.http().get(signed.body.url).set('Range', 'bytes=8-11').buffer(true).parse(binary);
+    expect(part.status).toBe(206);
+    expect((part.body as Buffer).toString('latin1')).toBe('WAVE');
+    // Another organisation cannot ask for an address at all.
+    expect((await t.http().get(`/api/standardisation/exercises/${demo.id}/recording-url`).set(auth(tok.otherOrg!))).status).toBe(404);
+  });
+
   it('after submitting: the reference, the deviation per criterion, everyone’s marks without names, and alpha across the three examiners', async () => {
     // Priya marks 1 below the reference on every criterion she can (0 stays 0).
     const reference: Record<string, number> = { note_accuracy: 10, fingering_consistency: 5, grouping: 3, motion_economy: 3, freedom_from_tension: 4, evenness: 6, tempo_control: 3 };
@@ -116,15 +136,26 @@ describe('standardisation', () => {
     expect((await get(ex.id, 'beatrix')).status).toBe(404);
     expect((await get(ex.id, 'otherOrg')).status).toBe(404);
     expect((await t.http().patch(`/api/standardisation/exercises/${ex.id}`).set(auth(tok.beatrix!)).send({ title: 'Mine' })).status).toBe(404);
-    // Publishing without reference marks: every missing one listed.
+    // Publishing without reference marks or a recording: every missing thing listed.
     const early = await t.http().post(`/api/standardisation/exercises/${ex.id}/publish`).set(auth(tok.teacher!));
     expect(early.status).toBe(400);
-    expect(early.body.details.length).toBe(ex.rubric.criteria.length);
+    expect(early.body.details.length).toBe(ex.rubric.criteria.length + 1);
+    expect(early.body.details.at(-1)).toEqual({ path: 'recording', message: 'Attach the reference recording: examiners mark what they hear.' });
     const ref = ex.rubric.criteria.map((c) => ({ request: 0, criterion: c.key, mark: Math.min(3, c.maxMark) }));
     expect((await t.http().patch(`/api/standardisation/exercises/${ex.id}`).set(auth(tok.teacher!)).send({ referenceMarks: ref })).status).toBe(200);
+    // The recording: a text file named .wav is refused by its content; a WAV is kept with its length.
+    const upload = (file: Buffer, name: string, who = 'teacher') => t.http().post(`/api/standardisation/exercises/${ex.id}/recording`).set(auth(tok[who]!)).attach('file', file, { filename: name });
+    expect((await upload(textFile(), 'take.wav')).status).toBe(415);
+    expect((await upload(wavFile({ seconds: 1 }), 'take.wav', 'beatrix')).status).toBe(404);
+    const first = await upload(wavFile({ seconds: 1 }), 'first.wav');
+    expect(first.status, JSON.stringify(first.body)).toBe(200);
+    const attached = await upload(wavFile({ seconds: 2 }), 'second.wav');
+    // RIFF header arithmetic: 2 s × 8000 samples × 2 bytes / 16000 bytes per second.
+    expect(attached.body.recording).toEqual({ contentType: 'audio/wav', bytes: 44 + 32000, durationSeconds: 2 });
     const published = await t.http().post(`/api/standardisation/exercises/${ex.id}/publish`).set(auth(tok.teacher!));
     expect(published.status).toBe(200);
     expect((await t.http().patch(`/api/standardisation/exercises/${ex.id}`).set(auth(tok.teacher!)).send({ title: 'Later' })).status).toBe(409);
+    expect((await upload(wavFile({ seconds: 1 }), 'late.wav')).status).toBe(409);
     // Now Beatrix sees it, blind, and may mark it.
     expect((await get(ex.id, 'beatrix')).body).toMatchObject({ canAttempt: true, referenceMarks: null });
     // Roles: a teacher without the examiner role cannot attempt (403); students see nothing (403).

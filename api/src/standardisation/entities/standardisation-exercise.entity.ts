@@ -13,6 +13,7 @@ import { Membership } from '../../users/entities/membership.entity.js';
 @Entity('standardisation_exercises')
 @Check('standardisation_exercises_status', `status IN ('draft', 'published')`)
 @Check('standardisation_exercises_published', `(status = 'published') = (published_at IS NOT NULL)`)
+@Check('standardisation_exercises_recording', `(recording_key IS NULL) = (recording_content_type IS NULL)`)
 @Index(['organisationId', 'status'])
 export class StandardisationExercise implements OrgOwned {
   @PrimaryGeneratedColumn('uuid')
@@ -46,6 +47,19 @@ export class StandardisationExercise implements OrgOwned {
   /** Request × criterion reference marks; never sent to an examiner before they submit. */
   @Column({ type: 'jsonb', default: () => `'[]'` })
   referenceMarks: ExerciseMark[];
+
+  /** The reference performance in storage (api/src/storage): its key, type from its bytes, size. */
+  @Column({ type: 'text', nullable: true })
+  recordingKey: string | null;
+
+  @Column({ type: 'text', nullable: true })
+  recordingContentType: string | null;
+
+  @Column({ type: 'integer', nullable: true })
+  recordingBytes: number | null;
+
+  @Column({ type: 'double precision', nullable: true })
+  recordingDurationSeconds: number | null;
 
   @Column({ type: 'text', default: 'draft' })
   status: ExerciseStatus;
