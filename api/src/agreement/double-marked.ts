@@ -2,19 +2,13 @@
 // functions (design.md §4.1), so the report compares what results would show. Only completed slots
 // whose two sheets are submitted (and record the candidate as completed) take part.
 import { In, type EntityManager, type ObjectLiteral } from 'typeorm';
-import {
-  bandOrder,
-  MarkSheetError,
-  scoreMarkSheet,
-  type BandPolicy,
-  type CellValue,
-  type SheetRequestInput,
-} from '@stavemark/shared';
+import { bandOrder, DEFAULT_BAND_POLICY, MarkSheetError, scoreMarkSheet, type BandPolicy, type CellValue } from '@stavemark/shared';
 import type { OrgOwned } from '../common/org-owned.js';
 import { ScopedRepository } from '../common/scoped-repository.js';
 import { MarkCell } from '../marking/entities/mark-cell.entity.js';
 import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
 import { SlotDraw } from '../marking/entities/slot-draw.entity.js';
+import { sheetInput } from '../results/results.service.js';
 import { RubricVersion } from '../rubrics/entities/rubric-version.entity.js';
 import { Sitting } from '../sittings/entities/sitting.entity.js';
 import { Slot } from '../sittings/entities/slot.entity.js';
@@ -58,7 +52,16 @@ export async function loadScoredPairs(em: EntityManager, sittings: readonly Sitt
   const rubrics = rubricIds.length
     ? await repo(em, RubricVersion, 'rubric version').find({ where: { id: In(rubricIds) }, relations: { criteria: true } })
     : [];
-  const rubricOf = new Map(rubrics.map((r) => [r.id, r]));
+  const rubricFacts = new Map(
+    rubrics.map((r) => [
+      r.id,
+      {
+        criteria: [...(r.criteria ?? [])]
+          .sort((a, b) => a.position - b.position)
+          .map((c) => ({ key: c.key, label: c.label, weight: Number(c.weight), maxMark: c.maxMark, position: c.position })),
+      },
+    ]),
+  );
   const policyIds = [...new Set(sittings.map((s) => s.bandPolicyId).filter((id): id is string => id !== null))];
   const policies = policyIds.length
     ? ((await em.query(`SELECT id, bands, below FROM band_policies WHERE id = ANY($1::uuid[])`, [policyIds])) as {
@@ -100,34 +103,19 @@ export async function loadScoredPairs(em: EntityManager, sittings: readonly Sitt
     const policy = (sitting.bandPolicyId && policyOf.get(sitting.bandPolicyId)) || undefined;
     const order = policy ? bandOrder(policy) : null;
     out.bandLevels = Math.max(out.bandLevels, order?.length ?? 4);
-    const score = (values: Map<string, CellValue>) => {
-      const requests: SheetRequestInput[] = draw.requests.map((r) => {
-        const criteria = [...(rubricOf.get(r.rubricVersionId)?.criteria ?? [])].sort((a, b) => a.position - b.position);
-        const marks: Record<string, number | null> = {};
-        for (const c of criteria) {
-          const m = values.get(`mark:${r.index}:${c.key}`);
-          marks[c.key] = typeof m === 'number' ? m : null;
-        }
-        return {
-          key: String(r.index),
-          asked: values.get(`asked:${r.index}`) !== false,
-          difficultyWeight: r.difficultyWeight,
-          criteria: criteria.map((c) => ({ key: c.key, label: c.label, weight: c.weight, maxMark: c.maxMark })),
-          marks,
-        };
-      });
-      return scoreMarkSheet({
-        outcome: 'completed',
-        totalMarks: slot.paper!.listVersion!.totalMarks,
-        requests,
-        ...(policy ? { policy } : {}),
-      });
+    // The same sheet reading as results (results.service.ts sheetInput) and the shared scorer, so
+    // the report compares the totals results show.
+    const totalMarks = slot.paper!.listVersion!.totalMarks;
+    const scoreOf = (values: Map<string, CellValue>) => {
+      const s = scoreMarkSheet({ outcome: 'completed', totalMarks, requests: sheetInput(draw.requests, values, rubricFacts), policy: policy ?? DEFAULT_BAND_POLICY });
+      if (s.status !== 'scored') throw new Error('A completed slot always scores.');
+      return { percentage: s.percentage, bandKey: s.band.key };
     };
-    let s1: ReturnType<typeof scoreMarkSheet>;
-    let s2: ReturnType<typeof scoreMarkSheet>;
+    let s1: ReturnType<typeof scoreOf>;
+    let s2: ReturnType<typeof scoreOf>;
     try {
-      s1 = score(v1);
-      s2 = score(v2);
+      s1 = scoreOf(v1);
+      s2 = scoreOf(v2);
     } catch (e) {
       // A submitted sheet that cannot be scored (a mark cleared by a correction) counts as not in.
       if (e instanceof MarkSheetError) {
@@ -136,16 +124,12 @@ export async function loadScoredPairs(em: EntityManager, sittings: readonly Sitt
       }
       throw e;
     }
-    if (s1.status !== 'scored' || s2.status !== 'scored') {
-      out.notCompleted++;
-      continue;
-    }
-    const rank = (key: string) => (order ? order.indexOf(key) : ['not_yet_passed', 'pass', 'merit', 'distinction'].indexOf(key));
+    const rank = (key: string) => (order ?? bandOrder(DEFAULT_BAND_POLICY)).indexOf(key);
     const ref = (s: MarkSheet) => ({ id: s.examinerMembershipId, name: s.examiner?.person?.displayName ?? 'Examiner' });
     out.pairs.push({
       slotId: slot.id,
-      first: { examiner: ref(first), percent: s1.percentage, bandRank: rank(s1.band.key) },
-      second: { examiner: ref(second), percent: s2.percentage, bandRank: rank(s2.band.key) },
+      first: { examiner: ref(first), percent: s1.percentage, bandRank: rank(s1.bandKey) },
+      second: { examiner: ref(second), percent: s2.percentage, bandRank: rank(s2.bandKey) },
     });
   }
   if (out.bandLevels === 0) out.bandLevels = 4;
