@@ -578,7 +578,8 @@ describe('role matrix', () => {
     await prepareSittings();
     await prepareMarking();
     await prepareAgreement();
-  });
+    // Every feature's set-up runs here, over HTTP; on a loaded machine it outgrows the default 30 s.
+  }, 120_000);
 
   for (const row of ROWS) {
     for (const caller of CALLERS) {

@@ -1,10 +1,10 @@
-import { CategoryScale, Chart as ChartJS, LinearScale, LineElement, PointElement, Tooltip, type ChartOptions } from 'chart.js';
+import { CategoryScale, Chart as ChartJS, Legend, LinearScale, LineElement, PointElement, Tooltip, type ChartOptions } from 'chart.js';
 import { Line } from 'react-chartjs-2';
 import type { DeviationHistory } from '@stavemark/shared';
 import { colours } from '@/app/theme/tokens';
 import { signed } from '@/lib/stats-format';
 
-ChartJS.register(CategoryScale, LinearScale, PointElement, LineElement, Tooltip);
+ChartJS.register(CategoryScale, LinearScale, PointElement, LineElement, Tooltip, Legend);
 
 /**
  * Mean distance from the reference per exercise (solid line, round markers) and mean signed
@@ -22,6 +22,9 @@ export function DeviationChart({ points }: { points: DeviationHistory['points'] 
     },
     scales: {
       y: {
+        // Room above and below the points, and 0 always in view.
+        grace: '15%',
+        beginAtZero: true,
         title: { display: true, text: 'Percentage points of the maximum', color: colours.ink },
         ticks: { color: colours.ink },
         grid: { color: (c) => (c.tick?.value === 0 ? colours.ink : colours.rule), lineWidth: (c) => (c.tick?.value === 0 ? 2 : 1) },
