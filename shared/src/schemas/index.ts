@@ -11,3 +11,5 @@ export * from './sittings.js';
 export * from './marking.js';
 export * from './results.js';
 export * from './starter-library.js';
+export * from './agreement.js';
+export * from './standardisation.js';
