@@ -180,6 +180,7 @@ try {
   const acknowledged = new Map();
   let sent = 0;
   let attempts = 0;
+  let unacknowledged = 0;
   const load0 = loadavg()[0];
   const serverCpu0 = cpuSeconds(server.pid);
   const clientCpu0 = process.cpuUsage();
@@ -209,8 +210,16 @@ try {
           }
           if (status === 200) break;
           errors.set(status, (errors.get(status) ?? 0) + 1);
-          if (attempt >= 20) throw new Error(`change ${changeId} never acknowledged (${status})`);
+          // The desk would keep it queued; the bench gives up after two minutes and says so.
+          if (performance.now() - t0 > 120_000) {
+            status = 'gave up';
+            break;
+          }
           await new Promise((r) => setTimeout(r, Math.min(2000, 100 * 2 ** attempt)));
+        }
+        if (status === 'gave up') {
+          unacknowledged++;
+          continue;
         }
         acknowledged.set(changeId, { sheetId, cell });
         latencies.push(performance.now() - t0);
@@ -260,7 +269,7 @@ try {
     `errors     ${errorCount}${errorCount ? ` (${[...errors].map(([k, v]) => `${k}: ${v}`).join(', ')}), each retried with the same change id` : ''}`,
   );
   console.log(
-    `no loss    changes sent ${sent}, acknowledged ${acknowledged.size}, cells stored ${stored}, changes applied ${changes}, acknowledged but missing ${missing.length}`,
+    `no loss    changes sent ${sent}, acknowledged ${acknowledged.size}, cells stored ${stored}, changes applied ${changes}, acknowledged but missing ${missing.length}, never acknowledged ${unacknowledged}`,
   );
   console.log(
     `cost       API ${((serverCpu / attempts) * 1000).toFixed(2)} ms CPU per save, bench client ${((clientCpu / attempts) * 1000).toFixed(2)} ms, ` +
@@ -268,7 +277,8 @@ try {
   );
   const p95 = quantile(latencies, 0.95);
   const failures = [];
-  if (missing.length || stored !== sent || changes !== sent)
+  if (unacknowledged) failures.push(`${unacknowledged} changes never acknowledged in two minutes`);
+  if (missing.length || stored !== acknowledged.size || changes !== acknowledged.size)
     failures.push(
       `lost saves: sent ${sent}, stored ${stored}, acknowledged but missing ${missing.length}`,
     );
@@ -283,7 +293,8 @@ try {
     server.kill('SIGTERM');
     await new Promise((r) => server.once('exit', r));
   }
-  await admin(`DROP DATABASE IF EXISTS "${dbName}" WITH (FORCE)`).catch((e) =>
-    console.error('could not drop', dbName, e.message),
-  );
+  // An autovacuum worker may still be in the scratch database for a moment: try again once.
+  await admin(`DROP DATABASE IF EXISTS "${dbName}" WITH (FORCE)`)
+    .catch(() => new Promise((r) => setTimeout(r, 3000)).then(() => admin(`DROP DATABASE IF EXISTS "${dbName}" WITH (FORCE)`)))
+    .catch((e) => console.error('could not drop', dbName, e.message));
 }
