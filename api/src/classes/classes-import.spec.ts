@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -7,6 +7,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import { createTestApp, signIn, type TestApp } from '../../test/support/test-app.js';
 import { startMailCatcher, type RunningMailCatcher } from '../mail-catcher/catcher.js';
+import { UPLOAD_TEMP_PREFIX } from './import/csv-upload.interceptor.js';
 import {
   clearCaughtMail,
   listCaughtMail,
@@ -381,6 +382,10 @@ describe('class-list import, guardians and the e-mails they cause', () => {
   });
 
   it('bad files over HTTP: binary, Latin-1, too large, no file', async () => {
+    // Uploads wait in temporary folders; none may be left behind, whatever the answer.
+    const uploadDirs = () =>
+      readdirSync(tmpdir()).filter((f) => join(tmpdir(), f).startsWith(UPLOAD_TEMP_PREFIX));
+    const leftBefore = uploadDirs();
     const binary = await upload(
       teacher,
       Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 0]),
@@ -413,6 +418,9 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       .set(auth(teacher))
       .attach('file', Buffer.from(HEADER), 'a.csv');
     expect(badQuery.status).toBe(400);
+    const good = await upload(teacher, `${HEADER}\nKL9001,Ada,Tmpfile,,2001-01-01,,,,TMP-1\n`, true);
+    expect(good.status, JSON.stringify(good.body)).toBe(200);
+    expect(uploadDirs().filter((d) => !leftBefore.includes(d))).toEqual([]);
   });
 
   it('forgot password: the same answer for any address; a reset link only for a real one; a reset signs out old sessions', async () => {

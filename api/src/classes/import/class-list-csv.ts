@@ -358,24 +358,36 @@ export async function parseClassListFile(
     );
   }
 
+  // The first 64 KB (or the whole file) decide the byte-order mark and the delimiter.
+  const HEAD = 64 * 1024;
   const checker = new TextChecker();
   let bom = 0;
+  let headParts: Buffer[] = [];
+  let headLength = 0;
   let head: Buffer | null = null;
-  for await (const raw of createReadStream(path, { highWaterMark: chunkSize })) {
-    let chunk = raw as Buffer;
-    if (head === null) {
-      if (chunk[0] === 0xef && chunk[1] === 0xbb && chunk[2] === 0xbf) {
-        bom = 3;
-        chunk = chunk.subarray(3);
-      }
-      head = Buffer.from(chunk);
+  const takeHead = () => {
+    head = Buffer.concat(headParts);
+    headParts = [];
+    if (head[0] === 0xef && head[1] === 0xbb && head[2] === 0xbf) {
+      bom = 3;
+      head = head.subarray(3);
     }
-    checker.push(chunk);
+    checker.push(head);
+  };
+  for await (const chunk of createReadStream(path, { highWaterMark: chunkSize })) {
+    if (head !== null) {
+      checker.push(chunk as Buffer);
+      continue;
+    }
+    headParts.push(chunk as Buffer);
+    headLength += (chunk as Buffer).length;
+    if (headLength >= HEAD) takeHead();
   }
+  if (head === null) takeHead();
   checker.end();
-  if (!head || head.length === 0)
+  if (!head || (head as Buffer).length === 0)
     throw new CsvFileError('The file is empty. Choose the class list CSV file and try again.');
-  const delimiter = detectDelimiter(head);
+  const delimiter = detectDelimiter(head as Buffer);
 
   const rows: { line: number; cells: string[] }[] = [];
   let dataRows = 0;

@@ -10,7 +10,7 @@ import {
 } from '@nestjs/common';
 import type { Request, Response } from 'express';
 import multer from 'multer';
-import { defer, finalize, type Observable } from 'rxjs';
+import { catchError, concatMap, type Observable } from 'rxjs';
 import { CLASS_IMPORT_MAX_BYTES } from '@stavemark/shared';
 import { invalid } from '../../common/errors.js';
 
@@ -72,7 +72,16 @@ export class CsvUploadInterceptor implements NestInterceptor {
       await cleanUp();
       throw err;
     }
-    // defer: the handler runs on subscription; finalize: after its answer or its error.
-    return defer(() => next.handle()).pipe(finalize(() => void cleanUp()));
+    // Removed before the answer goes out, after a result or an error alike.
+    return next.handle().pipe(
+      concatMap(async (result: unknown) => {
+        await cleanUp();
+        return result;
+      }),
+      catchError(async (err: unknown) => {
+        await cleanUp();
+        throw err;
+      }),
+    );
   }
 }
