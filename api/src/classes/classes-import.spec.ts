@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { readdirSync, readFileSync } from 'node:fs';
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
@@ -379,6 +380,28 @@ describe('class-list import, guardians and the e-mails they cause', () => {
         (c: { code: string }) => c.code,
       ),
     ).toEqual(['FH-TUE']);
+  });
+
+  it('reports its progress to the caller who sent the progress id, and to nobody else', async () => {
+    const progressId = randomUUID();
+    const csv = `${HEADER}\nKL9101,Ada,Progress,,2001-01-01,,,,PRG-1\nKL9102,Bram,Progress,,2001-02-01,,,,PRG-1\n`;
+    const res = await t
+      .http()
+      .post('/api/classes/import')
+      .set(auth(teacher))
+      .field('progressId', progressId)
+      .attach('file', Buffer.from(csv), 'progress.csv');
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const seen = await t.http().get(`/api/classes/import/progress/${progressId}`).set(auth(teacher));
+    expect(seen.status).toBe(200);
+    expect(seen.body).toEqual({ phase: 'done', done: 7, total: 7, step: 'Imported' });
+    // Another person, even an administrator of the same school, does not see it.
+    expect(
+      (await t.http().get(`/api/classes/import/progress/${progressId}`).set(auth(admin))).status,
+    ).toBe(404);
+    expect(
+      (await t.http().get(`/api/classes/import/progress/${randomUUID()}`).set(auth(teacher))).status,
+    ).toBe(404);
   });
 
   it('bad files over HTTP: binary, Latin-1, too large, no file', async () => {

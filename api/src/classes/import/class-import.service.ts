@@ -16,7 +16,21 @@ import { Student } from '../../students/entities/student.entity.js';
 import { bulkInsert } from '../../common/bulk-sql.js';
 import { ClassGroup } from '../entities/class-group.entity.js';
 import { CsvFileError, parseClassListFile, type CsvRecord } from './class-list-csv.js';
-import { checkRecord, type CheckedRow } from './row-checks.js';
+import { ImportProgressBoard, type ImportProgress } from './import-progress.js';
+import { checkRecord, type CheckedRow, type RowCheck } from './row-checks.js';
+
+/** Reports how far an import has come (a no-op when the client asked for no progress). */
+type Report = (p: ImportProgress) => void;
+/** The writing steps of an apply, in order, for its progress. */
+const WRITE_STEPS = [
+  'Creating new classes',
+  'Creating sign-ins for new students',
+  'Preparing the rows',
+  'Writing students',
+  'Writing guardians and class places',
+  'Queueing invitations and notices',
+  'Saving the import',
+] as const;
 
 /** A student row as the analysis needs it. */
 interface KnownStudent {
@@ -68,6 +82,7 @@ export class ClassImportService {
     private readonly audit: AuditService,
     private readonly invitations: InvitationsService,
     private readonly mail: MailService,
+    private readonly progress: ImportProgressBoard,
   ) {
     this.students = new ScopedRepository(studentRepo, 'student');
     this.classes = new ScopedRepository(classRepo, 'class');
@@ -81,8 +96,13 @@ export class ClassImportService {
   async import(
     file: { path: string; size: number; originalname: string },
     dryRun: boolean,
+    progressId: string | null = null,
   ): Promise<ImportReport> {
     const caller = RequestContext.requireCaller();
+    const tell: Report = progressId
+      ? (p) => this.progress.set(caller.membershipId, progressId, p)
+      : () => {};
+    tell({ phase: 'reading', done: 0, total: 0, step: 'Reading the file' });
     let parsed;
     try {
       parsed = await parseClassListFile(file.path, file.size);
@@ -93,7 +113,14 @@ export class ClassImportService {
     }
     const fileName = file.originalname || 'class-list.csv';
     if (dryRun) {
-      const plan = await this.analyse(this.db.manager, caller, parsed.records, parsed.delimiter);
+      const plan = await this.analyse(
+        this.db.manager,
+        caller,
+        parsed.records,
+        parsed.delimiter,
+        tell,
+      );
+      tell({ phase: 'done', done: 1, total: 1, step: 'Checked' });
       return { ...plan.report, dryRun: true, applied: false, fileName };
     }
     try {
@@ -102,7 +129,7 @@ export class ClassImportService {
         await em.query(`SELECT pg_advisory_xact_lock(hashtext($1))`, [
           `class-import:${caller.organisationId}`,
         ]);
-        const plan = await this.analyse(em, caller, parsed.records, parsed.delimiter);
+        const plan = await this.analyse(em, caller, parsed.records, parsed.delimiter, tell);
         const full: ImportReport = { ...plan.report, dryRun: false, applied: false, fileName };
         if (plan.report.counts.error > 0) {
           const n = plan.report.counts.error;
@@ -113,9 +140,10 @@ export class ClassImportService {
             },
           );
         }
-        await this.apply(em, caller, plan, fileName);
+        await this.apply(em, caller, plan, fileName, tell);
         return { ...full, applied: true };
       });
+      tell({ phase: 'done', done: WRITE_STEPS.length, total: WRITE_STEPS.length, step: 'Imported' });
       this.mail.afterCommit();
       return report;
     } catch (err) {
@@ -136,11 +164,26 @@ export class ClassImportService {
     caller: Caller,
     records: CsvRecord[],
     delimiter: ',' | ';',
+    report: Report,
   ): Promise<Plan> {
     const org = await em.findOneByOrFail(Organisation, { id: caller.organisationId });
     const importDate = localDate(now(), org.timeZone);
     const isAdmin = caller.roles.includes('admin');
-    const checks = records.map((r) => checkRecord(r, importDate));
+    const checks: RowCheck[] = [];
+    for (let i = 0; i < records.length; i++) {
+      // Every 250 rows, let the event loop answer other requests (the progress poll among them).
+      if (i % 250 === 0) {
+        report({ phase: 'checking', done: i, total: records.length, step: 'Checking every row' });
+        await new Promise((r) => setImmediate(r));
+      }
+      checks.push(checkRecord(records[i]!, importDate));
+    }
+    report({
+      phase: 'checking',
+      done: records.length,
+      total: records.length,
+      step: 'Matching rows with the students already here',
+    });
 
     // The same pupil number or student e-mail twice in one file.
     const firstLine = (key: (i: number) => string | null) => {
@@ -446,8 +489,13 @@ export class ClassImportService {
     caller: Caller,
     plan: Plan,
     fileName: string,
+    report: Report,
   ): Promise<void> {
     const org = caller.organisationId;
+    let stepsDone = 0;
+    const step = (name: (typeof WRITE_STEPS)[number]) =>
+      report({ phase: 'writing', done: stepsDone++, total: WRITE_STEPS.length, step: name });
+    step('Creating new classes');
     const orgName = (await em.findOneByOrFail(Organisation, { id: org })).name;
 
     // New classes, taught by the importer when they teach (class places join classes by code).
@@ -471,6 +519,7 @@ export class ClassImportService {
       }
     }
 
+    step('Creating sign-ins for new students');
     // People and memberships for new sign-ins.
     const membershipByPupil = new Map<string, string>();
     const newPeople = plan.signIns.filter((s) => !s.personId);
@@ -508,6 +557,7 @@ export class ClassImportService {
       membershipByPupil.set(s.pupilNumber, s.membershipId!);
     }
 
+    step('Preparing the rows');
     // The rows to write, staged once in a temporary table (one parameter: the rows as JSON), then
     // written with a few set-based statements that join it, instead of one array per column per
     // table sent back and forth. New students get their ids here, so nothing is mapped back.
@@ -558,6 +608,7 @@ export class ClassImportService {
              guardian_name text, guardian_email text, class_code text)`,
         [JSON.stringify(staged)],
       );
+      step('Writing students');
       if (plan.newStudents.length)
         await em.query(
           `INSERT INTO students (id, organisation_id, membership_id, pupil_number, given_name, family_name, email, date_of_birth, grade)
@@ -572,6 +623,7 @@ export class ClassImportService {
              FROM import_rows r WHERE r.kind = 'update' AND s.id = r.student_id AND s.organisation_id = $1`,
           [org],
         );
+      step('Writing guardians and class places');
       if (plan.newGuardians.length)
         await em.query(
           `INSERT INTO guardians (organisation_id, student_id, name, email)
@@ -595,6 +647,7 @@ export class ClassImportService {
       );
     }
 
+    step('Queueing invitations and notices');
     // E-mails: invitations for new sign-ins, notices with a consent link for guardians of minors.
     const invites = plan.signIns.filter((s) => s.invite);
     const mails: NewMail[] = [];
@@ -646,6 +699,7 @@ export class ClassImportService {
     }
     if (mails.length) await this.mail.enqueue(em, mails);
 
+    step('Saving the import');
     const c = plan.report.counts;
     await this.audit.record(
       {
