@@ -239,6 +239,8 @@ const CLASS_ROWS: Row[] = [
   { method: 'get', route: '/api/classes/import/template', path: () => '/api/classes/import/template', expect: staff(200) },
   // A dry run into a new class code of the caller's own organisation.
   { method: 'post', route: '/api/classes/import', path: () => '/api/classes/import?dryRun=true', file: () => ({ name: 'matrix.csv', content: importCsv('teacher') }), expect: staff(200) },
+  // An import nobody sent with this progress id: staff learn nothing (404), others are refused.
+  { method: 'get', route: '/api/classes/import/progress/{progressId}', path: () => `/api/classes/import/progress/${randomUUID()}`, expect: staff(404) },
   { method: 'get', route: '/api/classes/{id}', path: () => `/api/classes/${cc.ownClassId}`, expect: staff(200, 404) },
   { method: 'get', route: '/api/classes/{id}', path: () => `/api/classes/${cc.otherTeachersClassId}`, expect: ownOnly(200) },
   { method: 'patch', route: '/api/classes/{id}', path: () => `/api/classes/${cc.ownClassId}`, body: () => ({ name: 'Monday Foundations' }), expect: staff(200, 404) },

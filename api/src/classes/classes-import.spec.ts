@@ -1,4 +1,5 @@
-import { readFileSync } from 'node:fs';
+import { randomUUID } from 'node:crypto';
+import { readdirSync, readFileSync } from 'node:fs';
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -7,6 +8,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import { createTestApp, signIn, type TestApp } from '../../test/support/test-app.js';
 import { startMailCatcher, type RunningMailCatcher } from '../mail-catcher/catcher.js';
+import { UPLOAD_TEMP_PREFIX } from './import/csv-upload.interceptor.js';
 import {
   clearCaughtMail,
   listCaughtMail,
@@ -380,7 +382,33 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     ).toEqual(['FH-TUE']);
   });
 
+  it('reports its progress to the caller who sent the progress id, and to nobody else', async () => {
+    const progressId = randomUUID();
+    const csv = `${HEADER}\nKL9101,Ada,Progress,,2001-01-01,,,,PRG-1\nKL9102,Bram,Progress,,2001-02-01,,,,PRG-1\n`;
+    const res = await t
+      .http()
+      .post('/api/classes/import')
+      .set(auth(teacher))
+      .field('progressId', progressId)
+      .attach('file', Buffer.from(csv), 'progress.csv');
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const seen = await t.http().get(`/api/classes/import/progress/${progressId}`).set(auth(teacher));
+    expect(seen.status).toBe(200);
+    expect(seen.body).toEqual({ phase: 'done', done: 7, total: 7, step: 'Imported' });
+    // Another person, even an administrator of the same school, does not see it.
+    expect(
+      (await t.http().get(`/api/classes/import/progress/${progressId}`).set(auth(admin))).status,
+    ).toBe(404);
+    expect(
+      (await t.http().get(`/api/classes/import/progress/${randomUUID()}`).set(auth(teacher))).status,
+    ).toBe(404);
+  });
+
   it('bad files over HTTP: binary, Latin-1, too large, no file', async () => {
+    // Uploads wait in temporary folders; none may be left behind, whatever the answer.
+    const uploadDirs = () =>
+      readdirSync(tmpdir()).filter((f) => join(tmpdir(), f).startsWith(UPLOAD_TEMP_PREFIX));
+    const leftBefore = uploadDirs();
     const binary = await upload(
       teacher,
       Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 0]),
@@ -413,6 +441,9 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       .set(auth(teacher))
       .attach('file', Buffer.from(HEADER), 'a.csv');
     expect(badQuery.status).toBe(400);
+    const good = await upload(teacher, `${HEADER}\nKL9001,Ada,Tmpfile,,2001-01-01,,,,TMP-1\n`, true);
+    expect(good.status, JSON.stringify(good.body)).toBe(200);
+    expect(uploadDirs().filter((d) => !leftBefore.includes(d))).toEqual([]);
   });
 
   it('forgot password: the same answer for any address; a reset link only for a real one; a reset signs out old sessions', async () => {

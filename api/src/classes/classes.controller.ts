@@ -43,11 +43,16 @@ import { classListTemplate } from './class-list-export.js';
 import { ClassesService } from './classes.service.js';
 import { ClassImportService } from './import/class-import.service.js';
 import { CsvUploadInterceptor } from './import/csv-upload.interceptor.js';
+import { ImportProgressBoard, type ImportProgress } from './import/import-progress.js';
+import { RequestContext } from '../common/request-context.js';
+import { notFound } from '../common/errors.js';
 
 const STAFF = ['admin', 'teacher'] as const;
 const COLUMNS_DOC = CLASS_LIST_COLUMNS.map(
   (c) => `${c.header}${c.required ? '' : ' (optional)'}`,
 ).join(', ');
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 @ApiTags('classes')
 @Controller('classes')
@@ -55,6 +60,7 @@ export class ClassesController {
   constructor(
     private readonly classes: ClassesService,
     private readonly importer: ClassImportService,
+    private readonly progress: ImportProgressBoard,
   ) {}
 
   @Get()
@@ -106,7 +112,14 @@ export class ClassesController {
     schema: {
       type: 'object',
       required: ['file'],
-      properties: { file: { type: 'string', format: 'binary' } },
+      properties: {
+        progressId: {
+          type: 'string',
+          format: 'uuid',
+          description: 'Optional, before the file: GET /api/classes/import/progress/{progressId} then reports how far the import has come.',
+        },
+        file: { type: 'string', format: 'binary' },
+      },
     },
   })
   @ApiPayloadTooLargeResponse({ description: 'Larger than 2 MB.' })
@@ -114,7 +127,22 @@ export class ClassesController {
     @Req() req: Request,
     @ValidQuery(classImportQuerySchema) q: ClassImportQuery,
   ): Promise<ImportReport> {
-    return this.importer.import(req.file!, q.dryRun);
+    const id = (req.body as { progressId?: unknown } | undefined)?.progressId;
+    const progressId = typeof id === 'string' && UUID.test(id) ? id : null;
+    return this.importer.import(req.file!, q.dryRun, progressId);
+  }
+
+  @Get('import/progress/:progressId')
+  @Route({
+    summary: 'How far an import sent with this progressId has come (while it runs)',
+    roles: [...STAFF],
+    description:
+      'phase reading → checking (done/total rows) → writing (done/total steps) → done. 404 when this API instance knows no such import of the caller.',
+  })
+  importProgress(@IdParam('progressId') progressId: string): ImportProgress {
+    const p = this.progress.get(RequestContext.requireCaller().membershipId, progressId);
+    if (!p) throw notFound('import');
+    return p;
   }
 
   @Get(':id')

@@ -8,11 +8,12 @@ import { ClassesService } from './classes.service.js';
 import { ClassGroup } from './entities/class-group.entity.js';
 import { ClassImportService } from './import/class-import.service.js';
 import { CsvUploadInterceptor } from './import/csv-upload.interceptor.js';
+import { ImportProgressBoard } from './import/import-progress.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([ClassGroup, Student, Membership]), InvitationsModule],
   controllers: [ClassesController],
-  providers: [ClassesService, ClassImportService, CsvUploadInterceptor],
+  providers: [ClassesService, ClassImportService, CsvUploadInterceptor, ImportProgressBoard],
   exports: [ClassesService],
 })
 export class ClassesModule {}

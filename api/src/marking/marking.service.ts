@@ -470,37 +470,124 @@ export class MarkingService {
    * it asks for the value the cell already holds.
    */
   async saveCell(sheetId: string, input: SaveCellInput): Promise<SaveResult> {
+    const caller = RequestContext.requireCaller();
+    if (!caller.roles.includes('examiner')) throw notFound('mark sheet');
     const result = await this.db.transaction(async (em) => {
-      const sheet = await this.ownSheet(em, sheetId, 'pessimistic_read');
-      const claimed = await this.claim(
-        em,
-        sheet,
-        input.changeId,
-        input.cell,
-        input.value,
-        input.baseVersion,
-      );
-      if (!claimed) return this.replay(em, sheet, input.changeId);
-      if (sheet.status === 'submitted') {
+      // Measured (api/bench/marking-saves.mjs): the save is CPU-bound in the API, not in
+      // PostgreSQL, so the hot path is two hand-written statements between BEGIN and COMMIT
+      // instead of five built by TypeORM. Same locks and rules as before: the sheet FOR SHARE
+      // (submit takes it exclusively), the change id claimed first, the cell row locked.
+      const [sheet] = (await em.query(
+        `WITH sheet AS (
+           SELECT id, organisation_id, slot_id, examiner_membership_id, status FROM mark_sheets
+            WHERE id = $1 AND organisation_id = $2 FOR SHARE),
+         claim AS (
+           INSERT INTO mark_changes (change_id, sheet_id, cell, value, base_version, result, version)
+           SELECT $3, id, $4, $5::jsonb, $6, 'applied', 0 FROM sheet
+            WHERE examiner_membership_id = $7 AND status <> 'submitted'
+           ON CONFLICT (change_id) DO NOTHING RETURNING change_id)
+         SELECT id, organisation_id, slot_id, examiner_membership_id, status,
+                EXISTS (SELECT 1 FROM claim) AS claimed FROM sheet`,
+        [
+          sheetId,
+          caller.organisationId,
+          input.changeId,
+          input.cell,
+          JSON.stringify(input.value),
+          input.baseVersion,
+          caller.membershipId,
+        ],
+      )) as {
+        id: string;
+        organisation_id: string;
+        slot_id: string;
+        examiner_membership_id: string;
+        status: MarkSheet['status'];
+        claimed: boolean;
+      }[];
+      if (!sheet || sheet.examiner_membership_id !== caller.membershipId)
+        throw notFound('mark sheet');
+      const facts = {
+        id: sheet.id,
+        organisationId: sheet.organisation_id,
+        slotId: sheet.slot_id,
+      } as MarkSheet;
+      if (!sheet.claimed) {
+        // Either the change id was seen before (its first result stands) or the sheet is submitted.
+        const seen = await em.getRepository(MarkChange).existsBy({ changeId: input.changeId });
+        if (seen) return this.replay(em, facts, input.changeId);
         throw new DomainError(
           ErrorCode.Conflict,
           'This sheet is submitted: change it with a correction and a reason.',
           { kind: 'submitted' },
         );
       }
-      await this.checkCell(em, sheet, input.cell, input.value);
-      return this.apply(
-        em,
-        sheet,
-        input.changeId,
-        input.cell,
-        input.value,
-        input.baseVersion,
-        'applied',
+      await this.checkCell(em, facts, input.cell, input.value);
+      return (
+        (await this.applyFast(em, facts, input)) ??
+        this.apply(
+          em,
+          facts,
+          input.changeId,
+          input.cell,
+          input.value,
+          input.baseVersion,
+          'applied',
+        )
       );
     });
     if (result.status === 'conflict') throw new CellConflict(result);
     return result;
+  }
+
+  /**
+   * The usual save in one statement: the cell is written when it is at the base version the
+   * client saw (or already holds the value), or created when new and based on version 0, and the
+   * change records the result. Anything else (a conflict, a cell created at the same moment by
+   * someone else) answers null and goes through `apply`, which locks the cell and decides.
+   */
+  private async applyFast(
+    em: EntityManager,
+    sheet: MarkSheet,
+    input: SaveCellInput,
+  ): Promise<SaveResult | null> {
+    const rows = (await em.query(
+      `WITH updated AS (
+         UPDATE mark_cells c SET
+                version = CASE WHEN c.version > 0 AND c.value = $3::jsonb THEN c.version ELSE c.version + 1 END,
+                last_change_id = CASE WHEN c.version > 0 AND c.value = $3::jsonb THEN c.last_change_id ELSE $5 END,
+                updated_at = CASE WHEN c.version > 0 AND c.value = $3::jsonb THEN c.updated_at ELSE now() END,
+                value = $3::jsonb
+          WHERE c.sheet_id = $1 AND c.cell = $2 AND (c.version = $4 OR c.value = $3::jsonb)
+          RETURNING c.version),
+       inserted AS (
+         INSERT INTO mark_cells (organisation_id, sheet_id, cell, value, version, last_change_id)
+         SELECT $6, $1, $2, $3::jsonb, 1, $5
+          WHERE $4 = 0 AND NOT EXISTS (SELECT 1 FROM mark_cells WHERE sheet_id = $1 AND cell = $2)
+         ON CONFLICT (sheet_id, cell) DO NOTHING RETURNING version),
+       result AS (SELECT version FROM updated UNION ALL SELECT version FROM inserted),
+       recorded AS (
+         UPDATE mark_changes m SET version = r.version FROM result r WHERE m.change_id = $5
+         RETURNING m.version)
+       SELECT version FROM recorded`,
+      [
+        sheet.id,
+        input.cell,
+        JSON.stringify(input.value),
+        input.baseVersion,
+        input.changeId,
+        sheet.organisationId,
+      ],
+    )) as { version: number }[];
+    const version = rows[0]?.version;
+    if (version === undefined) return null;
+    return {
+      status: 'applied',
+      cell: input.cell,
+      value: input.value,
+      version,
+      changeId: input.changeId,
+    };
   }
 
   /** A later change to a submitted sheet: audited with the old and new values and the reason. */

@@ -194,6 +194,44 @@ describe('the marking desk', () => {
       version: 1,
     });
 
+    // A save based on a version of a cell that does not exist yet (a client bug or a lost
+    // database): a conflict against the empty cell, never a silent write.
+    const ghost = await save(sheet, 'comment:0', 'Late', 3);
+    expect(ghost.status).toBe(409);
+    expect(ghost.body.details).toMatchObject({ kind: 'cell_conflict', theirs: null, version: 0 });
+    // …after which the empty cell (version 0) takes a save from base 0 as version 1.
+    expect((await save(sheet, 'comment:0', 'Late', 0)).body).toMatchObject({
+      status: 'applied',
+      version: 1,
+    });
+    // Many new cells at once from base 0 and several changes to one cell at once: each change is
+    // recorded with the version it produced, and the versions of the one cell are 1..n in order.
+    const many = await Promise.all(
+      ['restart', 'stopped', 'prompted'].map((f) => save(sheet, `flag:0:${f}`, 2, 0)),
+    );
+    expect(many.map((m) => m.body)).toMatchObject([
+      { status: 'applied', version: 1 },
+      { status: 'applied', version: 1 },
+      { status: 'applied', version: 1 },
+    ]);
+    const count = 'flag:1:slip';
+    const ids = [randomUUID(), randomUUID(), randomUUID()];
+    const same = await Promise.all(ids.map((id, i) => save(sheet, count, i + 1, 0, id)));
+    // One is applied from base 0; the others meet a changed cell: conflicts with both values.
+    expect(same.filter((s) => s.status === 200)).toHaveLength(1);
+    expect(same.filter((s) => s.status === 409)).toHaveLength(2);
+    const recorded = (await t.db.query(
+      `SELECT c.result, c.version, cell.version AS cell_version FROM mark_changes c
+         JOIN mark_cells cell ON cell.sheet_id = c.sheet_id AND cell.cell = c.cell
+        WHERE c.change_id = ANY($1) ORDER BY c.result`,
+      [ids],
+    )) as { result: string; version: number; cell_version: number }[];
+    expect(recorded.map((r) => [r.result, r.version, r.cell_version])).toEqual([
+      ['applied', 1, 1],
+      ['conflict', 1, 1],
+      ['conflict', 1, 1],
+    ]);
+
     // Bad input: a mark above the criterion's maximum, an unknown criterion, a request not drawn.
     expect((await save(sheet, cell, c1!.maxMark + 1, 2)).status).toBe(400);
     expect((await save(sheet, 'mark:0:nonsense', 1, 0)).status).toBe(400);

@@ -15,8 +15,22 @@ import { Guardian } from '../../students/entities/guardian.entity.js';
 import { Student } from '../../students/entities/student.entity.js';
 import { bulkInsert } from '../../common/bulk-sql.js';
 import { ClassGroup } from '../entities/class-group.entity.js';
-import { CsvFileError, parseClassList } from './class-list-csv.js';
-import { checkRecord, type CheckedRow } from './row-checks.js';
+import { CsvFileError, parseClassListFile, type CsvRecord } from './class-list-csv.js';
+import { ImportProgressBoard, type ImportProgress } from './import-progress.js';
+import { checkRecord, type CheckedRow, type RowCheck } from './row-checks.js';
+
+/** Reports how far an import has come (a no-op when the client asked for no progress). */
+type Report = (p: ImportProgress) => void;
+/** The writing steps of an apply, in order, for its progress. */
+const WRITE_STEPS = [
+  'Creating new classes',
+  'Creating sign-ins for new students',
+  'Preparing the rows',
+  'Writing students',
+  'Writing guardians and class places',
+  'Queueing invitations and notices',
+  'Saving the import',
+] as const;
 
 /** A student row as the analysis needs it. */
 interface KnownStudent {
@@ -68,6 +82,7 @@ export class ClassImportService {
     private readonly audit: AuditService,
     private readonly invitations: InvitationsService,
     private readonly mail: MailService,
+    private readonly progress: ImportProgressBoard,
   ) {
     this.students = new ScopedRepository(studentRepo, 'student');
     this.classes = new ScopedRepository(classRepo, 'class');
@@ -79,13 +94,18 @@ export class ClassImportService {
    * are rows in that transaction and go out after commit.
    */
   async import(
-    file: { buffer: Buffer; originalname: string },
+    file: { path: string; size: number; originalname: string },
     dryRun: boolean,
+    progressId: string | null = null,
   ): Promise<ImportReport> {
     const caller = RequestContext.requireCaller();
+    const tell: Report = progressId
+      ? (p) => this.progress.set(caller.membershipId, progressId, p)
+      : () => {};
+    tell({ phase: 'reading', done: 0, total: 0, step: 'Reading the file' });
     let parsed;
     try {
-      parsed = parseClassList(file.buffer);
+      parsed = await parseClassListFile(file.path, file.size);
     } catch (err) {
       if (err instanceof CsvFileError)
         throw invalid(err.message, [{ path: 'file', message: err.message }]);
@@ -93,7 +113,14 @@ export class ClassImportService {
     }
     const fileName = file.originalname || 'class-list.csv';
     if (dryRun) {
-      const plan = await this.analyse(this.db.manager, caller, parsed.records, parsed.delimiter);
+      const plan = await this.analyse(
+        this.db.manager,
+        caller,
+        parsed.records,
+        parsed.delimiter,
+        tell,
+      );
+      tell({ phase: 'done', done: 1, total: 1, step: 'Checked' });
       return { ...plan.report, dryRun: true, applied: false, fileName };
     }
     try {
@@ -102,7 +129,7 @@ export class ClassImportService {
         await em.query(`SELECT pg_advisory_xact_lock(hashtext($1))`, [
           `class-import:${caller.organisationId}`,
         ]);
-        const plan = await this.analyse(em, caller, parsed.records, parsed.delimiter);
+        const plan = await this.analyse(em, caller, parsed.records, parsed.delimiter, tell);
         const full: ImportReport = { ...plan.report, dryRun: false, applied: false, fileName };
         if (plan.report.counts.error > 0) {
           const n = plan.report.counts.error;
@@ -113,9 +140,10 @@ export class ClassImportService {
             },
           );
         }
-        await this.apply(em, caller, plan, fileName);
+        await this.apply(em, caller, plan, fileName, tell);
         return { ...full, applied: true };
       });
+      tell({ phase: 'done', done: WRITE_STEPS.length, total: WRITE_STEPS.length, step: 'Imported' });
       this.mail.afterCommit();
       return report;
     } catch (err) {
@@ -134,13 +162,28 @@ export class ClassImportService {
   private async analyse(
     em: EntityManager,
     caller: Caller,
-    records: ReturnType<typeof parseClassList>['records'],
+    records: CsvRecord[],
     delimiter: ',' | ';',
+    report: Report,
   ): Promise<Plan> {
     const org = await em.findOneByOrFail(Organisation, { id: caller.organisationId });
     const importDate = localDate(now(), org.timeZone);
     const isAdmin = caller.roles.includes('admin');
-    const checks = records.map((r) => checkRecord(r, importDate));
+    const checks: RowCheck[] = [];
+    for (let i = 0; i < records.length; i++) {
+      // Every 250 rows, let the event loop answer other requests (the progress poll among them).
+      if (i % 250 === 0) {
+        report({ phase: 'checking', done: i, total: records.length, step: 'Checking every row' });
+        await new Promise((r) => setImmediate(r));
+      }
+      checks.push(checkRecord(records[i]!, importDate));
+    }
+    report({
+      phase: 'checking',
+      done: records.length,
+      total: records.length,
+      step: 'Matching rows with the students already here',
+    });
 
     // The same pupil number or student e-mail twice in one file.
     const firstLine = (key: (i: number) => string | null) => {
@@ -446,21 +489,16 @@ export class ClassImportService {
     caller: Caller,
     plan: Plan,
     fileName: string,
+    report: Report,
   ): Promise<void> {
     const org = caller.organisationId;
+    let stepsDone = 0;
+    const step = (name: (typeof WRITE_STEPS)[number]) =>
+      report({ phase: 'writing', done: stepsDone++, total: WRITE_STEPS.length, step: name });
+    step('Creating new classes');
     const orgName = (await em.findOneByOrFail(Organisation, { id: org })).name;
 
-    // New classes, taught by the importer when they teach.
-    const classIdByCode = new Map<string, string>();
-    if (plan.classJoins.length) {
-      const codes = [...new Set(plan.classJoins.map((j) => j.classCode))];
-      const existing = await this.classes
-        .withManager(em)
-        .qb('c')
-        .andWhere('c.code = ANY(:codes)', { codes })
-        .getMany();
-      for (const c of existing) classIdByCode.set(c.code, c.id);
-    }
+    // New classes, taught by the importer when they teach (class places join classes by code).
     if (plan.newClassCodes.length) {
       const created = await bulkInsert(
         em,
@@ -473,7 +511,6 @@ export class ClassImportService {
         plan.newClassCodes.map((code) => [org, code, code]),
         'id, code',
       );
-      for (const c of created) classIdByCode.set(c.code!, c.id!);
       if (caller.roles.includes('teacher')) {
         await em.query(
           `INSERT INTO class_teachers (class_id, membership_id) SELECT unnest($1::uuid[]), $2`,
@@ -482,6 +519,7 @@ export class ClassImportService {
       }
     }
 
+    step('Creating sign-ins for new students');
     // People and memberships for new sign-ins.
     const membershipByPupil = new Map<string, string>();
     const newPeople = plan.signIns.filter((s) => !s.personId);
@@ -519,88 +557,97 @@ export class ClassImportService {
       membershipByPupil.set(s.pupilNumber, s.membershipId!);
     }
 
-    // Students.
-    const idByPupil = new Map<string, string>();
-    if (plan.newStudents.length) {
-      const inserted = await bulkInsert(
-        em,
-        'students',
-        [
-          { name: 'organisation_id', type: 'uuid' },
-          { name: 'membership_id', type: 'uuid' },
-          { name: 'pupil_number', type: 'text' },
-          { name: 'given_name', type: 'text' },
-          { name: 'family_name', type: 'text' },
-          { name: 'email', type: 'text' },
-          { name: 'date_of_birth', type: 'date' },
-          { name: 'grade', type: 'integer' },
-        ],
-        plan.newStudents.map((r) => [
-          org,
-          membershipByPupil.get(r.pupilNumber!) ?? null,
-          r.pupilNumber,
-          r.givenName,
-          r.familyName,
-          r.studentEmail,
-          r.dateOfBirth,
-          r.grade,
-        ]),
-        'id, pupil_number',
-      );
-      for (const s of inserted) idByPupil.set(s.pupil_number!, s.id!);
-    }
-    if (plan.updates.length) {
-      // A blank optional cell keeps what is stored.
-      const u = plan.updates.map(({ student: s, row: r }) => [
-        s.id,
-        r.givenName,
-        r.familyName,
-        r.studentEmail ?? s.email,
-        r.dateOfBirth,
-        r.grade ?? s.grade,
-      ]);
-      await em.query(
-        `UPDATE students s SET given_name = u.given_name, family_name = u.family_name, email = u.email,
-                date_of_birth = u.date_of_birth, grade = u.grade
-           FROM unnest($2::uuid[], $3::text[], $4::text[], $5::text[], $6::date[], $7::integer[])
-                AS u(id, given_name, family_name, email, date_of_birth, grade)
-          WHERE s.id = u.id AND s.organisation_id = $1`,
-        [org, ...[0, 1, 2, 3, 4, 5].map((k) => u.map((row) => row[k]))],
-      );
-    }
+    step('Preparing the rows');
+    // The rows to write, staged once in a temporary table (one parameter: the rows as JSON), then
+    // written with a few set-based statements that join it, instead of one array per column per
+    // table sent back and forth. New students get their ids here, so nothing is mapped back.
+    // One staged row per thing to write: a new or updated student, a new guardian, a class place.
+    const newIds = new Map(plan.newStudents.map((n) => [n.pupilNumber!, randomUUID()]));
     const idOf = (key: StudentKey): string =>
-      'id' in key ? key.id : idByPupil.get(key.pupilNumber)!;
-
-    // Guardians and class places.
-    await bulkInsert(
-      em,
-      'guardians',
-      [
-        { name: 'organisation_id', type: 'uuid' },
-        { name: 'student_id', type: 'uuid' },
-        { name: 'name', type: 'text' },
-        { name: 'email', type: 'text' },
-      ],
-      plan.newGuardians.map((g) => [org, idOf(g.key), g.name, g.email]),
-    );
+      'id' in key ? key.id : newIds.get(key.pupilNumber)!;
+    const staged: Record<string, unknown>[] = [
+      ...plan.newStudents.map((n) => ({
+        kind: 'new',
+        student_id: newIds.get(n.pupilNumber!),
+        membership_id: membershipByPupil.get(n.pupilNumber!) ?? null,
+        pupil_number: n.pupilNumber,
+        given_name: n.givenName,
+        family_name: n.familyName,
+        email: n.studentEmail,
+        date_of_birth: n.dateOfBirth,
+        grade: n.grade,
+      })),
+      // A blank optional cell keeps what is stored.
+      ...plan.updates.map(({ student: st, row: r }) => ({
+        kind: 'update',
+        student_id: st.id,
+        given_name: r.givenName,
+        family_name: r.familyName,
+        email: r.studentEmail ?? st.email,
+        date_of_birth: r.dateOfBirth,
+        grade: r.grade ?? st.grade,
+      })),
+      ...plan.newGuardians.map((g) => ({
+        kind: 'guardian',
+        student_id: idOf(g.key),
+        guardian_name: g.name,
+        guardian_email: g.email,
+      })),
+      ...plan.classJoins.map((j) => ({
+        kind: 'join',
+        student_id: idOf(j.key),
+        class_code: j.classCode,
+      })),
+    ];
+    if (staged.length) {
+      await em.query(
+        `CREATE TEMP TABLE import_rows ON COMMIT DROP AS
+           SELECT * FROM jsonb_to_recordset($1::jsonb) AS r(
+             kind text, student_id uuid, membership_id uuid, pupil_number text, given_name text,
+             family_name text, email text, date_of_birth date, grade integer,
+             guardian_name text, guardian_email text, class_code text)`,
+        [JSON.stringify(staged)],
+      );
+      step('Writing students');
+      if (plan.newStudents.length)
+        await em.query(
+          `INSERT INTO students (id, organisation_id, membership_id, pupil_number, given_name, family_name, email, date_of_birth, grade)
+           SELECT student_id, $1, membership_id, pupil_number, given_name, family_name, email, date_of_birth, grade
+             FROM import_rows WHERE kind = 'new'`,
+          [org],
+        );
+      if (plan.updates.length)
+        await em.query(
+          `UPDATE students s SET given_name = r.given_name, family_name = r.family_name, email = r.email,
+                  date_of_birth = r.date_of_birth, grade = r.grade
+             FROM import_rows r WHERE r.kind = 'update' AND s.id = r.student_id AND s.organisation_id = $1`,
+          [org],
+        );
+      step('Writing guardians and class places');
+      if (plan.newGuardians.length)
+        await em.query(
+          `INSERT INTO guardians (organisation_id, student_id, name, email)
+           SELECT $1, student_id, guardian_name, guardian_email FROM import_rows WHERE kind = 'guardian'`,
+          [org],
+        );
+      if (plan.classJoins.length)
+        await em.query(
+          `INSERT INTO class_members (class_id, student_id)
+           SELECT c.id, r.student_id FROM import_rows r
+             JOIN classes c ON c.organisation_id = $1 AND c.code = r.class_code
+            WHERE r.kind = 'join'
+           ON CONFLICT DO NOTHING`,
+          [org],
+        );
+    }
     if (plan.guardianRenames.length) {
       await em.query(
         `UPDATE guardians g SET name = u.name FROM unnest($2::uuid[], $3::text[]) AS u(id, name) WHERE g.id = u.id AND g.organisation_id = $1`,
         [org, plan.guardianRenames.map((g) => g.id), plan.guardianRenames.map((g) => g.name)],
       );
     }
-    await bulkInsert(
-      em,
-      'class_members',
-      [
-        { name: 'class_id', type: 'uuid' },
-        { name: 'student_id', type: 'uuid' },
-      ],
-      plan.classJoins.map((j) => [classIdByCode.get(j.classCode)!, idOf(j.key)]),
-      undefined,
-      'ON CONFLICT DO NOTHING',
-    );
 
+    step('Queueing invitations and notices');
     // E-mails: invitations for new sign-ins, notices with a consent link for guardians of minors.
     const invites = plan.signIns.filter((s) => s.invite);
     const mails: NewMail[] = [];
@@ -652,6 +699,7 @@ export class ClassImportService {
     }
     if (mails.length) await this.mail.enqueue(em, mails);
 
+    step('Saving the import');
     const c = plan.report.counts;
     await this.audit.record(
       {

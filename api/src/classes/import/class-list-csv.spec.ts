@@ -1,4 +1,7 @@
-import { describe, expect, it } from 'vitest';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
 import { stringify } from 'csv-stringify/sync';
 import { CLASS_IMPORT_MAX_ROWS, CLASS_LIST_COLUMNS } from '@stavemark/shared';
 import {
@@ -7,6 +10,7 @@ import {
   detectDelimiter,
   firstInvalidUtf8,
   parseClassList,
+  parseClassListFile,
   readRecords,
 } from './class-list-csv.js';
 
@@ -216,5 +220,51 @@ describe('UTF-8 validation (RFC 3629 §4 syntax)', () => {
     expect(firstInvalidUtf8(Uint8Array.from([0xed, 0xa0, 0x80]))).toBe(0); // UTF-16 surrogate
     expect(firstInvalidUtf8(Uint8Array.from([0x41, 0xe2, 0x82]))).toBe(1); // cut off
     expect(firstInvalidUtf8(Uint8Array.from([0xf4, 0x90, 0x80, 0x80]))).toBe(0); // past U+10FFFF
+  });
+});
+
+describe('the streamed read of an uploaded file (parseClassListFile) agrees with the whole-file read', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'stavemark-csv-spec-'));
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+  let n = 0;
+  const outcome = async (read: () => unknown) => {
+    try {
+      return { ok: await read() };
+    } catch (e) {
+      expect(e).toBeInstanceOf(CsvFileError);
+      return { refused: (e as Error).message };
+    }
+  };
+  const rows = Array.from({ length: 40 }, (_, i) => ROW.replace('KL2001', `P${i}`));
+  const cases: [string, Uint8Array][] = [
+    ['BOM, CRLF, quoted line breaks and multi-byte names', bytes(`\uFEFF${HEADER}\r\nKL1,"Zoë\r\nAnn",音楽,,2010-01-01,"Pendry, Sam",s@family.example,1,A\r\n${rows.join('\r\n')}\r\n\r\n`)],
+    ['emoji at every offset', bytes(`${HEADER}\n${rows.map((r, i) => r.replace('Ada', '🎹'.repeat(1 + (i % 4)))).join('\n')}\n`)],
+    ['semicolons', bytes(`${HEADER.replaceAll(',', ';')}\n${ROW.replaceAll(',', ';')}\n`)],
+    ['Latin-1 after many lines', Uint8Array.from([...bytes(`${HEADER}\n${rows.join('\n')}\nKL1,Zo`), 0xeb, ...bytes(',Pendry,,2010-01-01,,,,A\n')])],
+    ['a UTF-8 character cut off at the end', Uint8Array.from([...bytes(`${HEADER}\n${ROW}`), 0xe2, 0x82])],
+    ['a control byte on line 3', bytes(`${HEADER}\n${ROW}\n${ROW.replace('Ada', 'A\u0001da')}\n`)],
+    ['binary', Uint8Array.from([0x50, 0x4b, 0x03, 0x04, 0x14, 0x00])],
+    ['an unclosed quote', bytes(`${HEADER}\nKL1,"Ada,Pendry,,2010-01-01,,,,A\n`)],
+    ['only blank lines', bytes('\r\n\r\n')],
+    ['a missing header', bytes(`${ROW}\n${ROW}\n`)],
+    ['more than the row limit', bytes(`${HEADER}\n${Array.from({ length: CLASS_IMPORT_MAX_ROWS + 2 }, (_, i) => ROW.replace('KL2001', `P${i}`)).join('\n')}\n`)],
+  ];
+  for (const [name, input] of cases) {
+    it(name, async () => {
+      const path = join(dir, `case-${n++}.csv`);
+      writeFileSync(path, input);
+      const whole = await outcome(() => parseClassList(input));
+      // Chunks of 1, 2, 3 and 5 bytes cut every multi-byte character and CRLF somewhere.
+      for (const chunk of [1, 2, 3, 5, 64 * 1024]) {
+        if (chunk < 64 * 1024 && input.length > 20_000) continue; // the long file only in big chunks
+        expect(await outcome(() => parseClassListFile(path, input.length, chunk))).toEqual(whole);
+      }
+    });
+  }
+  it('an empty upload and one over 2 MB are refused before reading', async () => {
+    await expect(parseClassListFile(join(dir, 'nothing.csv'), 0)).rejects.toThrow(/empty/);
+    await expect(parseClassListFile(join(dir, 'nothing.csv'), 2 * 1024 * 1024 + 1)).rejects.toThrow(
+      /limit is 2 MB/,
+    );
   });
 });

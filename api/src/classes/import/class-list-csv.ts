@@ -1,4 +1,6 @@
-import { CsvError, parse } from 'csv-parse/sync';
+import { createReadStream } from 'node:fs';
+import { CsvError, parse as parseStream } from 'csv-parse';
+import { parse } from 'csv-parse/sync';
 import {
   CLASS_IMPORT_MAX_BYTES,
   CLASS_IMPORT_MAX_ROWS,
@@ -182,6 +184,18 @@ export function parseClassList(input: Uint8Array): ParsedClassList {
   const buf = checkCsvBytes(input);
   const delimiter = detectDelimiter(buf);
   const rows = readRecords(buf, delimiter);
+  return toClassList(rows, rows.length - 1, delimiter);
+}
+
+/**
+ * The header and the records of a class list; `dataRowCount` counts every non-blank data row,
+ * also those past the limit that a streamed read no longer keeps.
+ */
+function toClassList(
+  rows: { line: number; cells: string[] }[],
+  dataRowCount: number,
+  delimiter: ',' | ';',
+): ParsedClassList {
   if (rows.length === 0)
     throw new CsvFileError(
       `The file has no header line. The first line names the columns: ${columnList}.`,
@@ -224,9 +238,9 @@ export function parseClassList(input: Uint8Array): ParsedClassList {
   }
 
   const dataRows = rows.slice(1);
-  if (dataRows.length > CLASS_IMPORT_MAX_ROWS) {
+  if (dataRowCount > CLASS_IMPORT_MAX_ROWS) {
     throw new CsvFileError(
-      `The file has ${dataRows.length.toLocaleString('en-GB')} rows of students; the limit is ${CLASS_IMPORT_MAX_ROWS.toLocaleString('en-GB')} per import. Split it into smaller files.`,
+      `The file has ${dataRowCount.toLocaleString('en-GB')} rows of students; the limit is ${CLASS_IMPORT_MAX_ROWS.toLocaleString('en-GB')} per import. Split it into smaller files.`,
     );
   }
 
@@ -245,4 +259,155 @@ export function parseClassList(input: Uint8Array): ParsedClassList {
     return { line: r.line, cells, shapeError };
   });
   return { delimiter, columns, records };
+}
+
+/**
+ * The text checks of checkCsvBytes, chunk by chunk: a multi-byte character cut by a chunk edge is
+ * held back until the next chunk. Also notes where each line feed is, for line numbers.
+ */
+export class TextChecker {
+  private pending: Uint8Array = new Uint8Array(0);
+  private offset = 0;
+  private lines = 1;
+  /** Byte offsets (after the byte-order mark) of every line feed seen. */
+  lineFeeds = new Uint32Array(1024);
+  lineFeedCount = 0;
+
+  push(chunk: Uint8Array): void {
+    const buf = this.pending.length ? Buffer.concat([this.pending, chunk]) : chunk;
+    // Hold back the start of a character that continues in the next chunk (at most 3 bytes).
+    let cut = buf.length;
+    for (let k = 1; k <= 3 && k <= buf.length; k++) {
+      const b = buf[buf.length - k]!;
+      if ((b & 0xc0) === 0x80) continue; // continuation byte: look further back
+      const need = b >= 0xf0 ? 4 : b >= 0xe0 ? 3 : b >= 0xc0 ? 2 : 1;
+      if (need > k) cut = buf.length - k;
+      break;
+    }
+    this.check(buf.subarray(0, cut));
+    this.pending = Uint8Array.from(buf.subarray(cut));
+  }
+
+  end(): void {
+    if (this.pending.length) this.check(this.pending, true);
+  }
+
+  private check(part: Uint8Array, last = false): void {
+    for (let i = 0; i < part.length; i++) {
+      const b = part[i]!;
+      if (b === 0x0a) this.noteLineFeed(this.offset + i);
+      else if (b === 0x00 || (b < 0x20 && b !== 0x09 && b !== 0x0d) || b === 0x7f) {
+        throw new CsvFileError(
+          `This is not a CSV text file: line ${this.lineOf(i)} contains the control byte ${BYTE(b)}, which text files do not have (is it a spreadsheet workbook or another binary file?). ${SAVE_AS_HINT}`,
+        );
+      }
+    }
+    const bad = firstInvalidUtf8(part);
+    if (bad >= 0 && (last || bad < part.length)) {
+      throw new CsvFileError(
+        `The file is not UTF-8 text: line ${this.lineOf(bad)} has the byte ${BYTE(part[bad]!)}, which is not UTF-8 (the file was probably saved as Latin-1 or Windows-1252, so accented letters would come out garbled). ${SAVE_AS_HINT}`,
+      );
+    }
+    this.offset += part.length;
+  }
+
+  private noteLineFeed(at: number): void {
+    if (this.lineFeedCount === this.lineFeeds.length) {
+      const grown = new Uint32Array(this.lineFeeds.length * 2);
+      grown.set(this.lineFeeds);
+      this.lineFeeds = grown;
+    }
+    this.lineFeeds[this.lineFeedCount++] = at;
+    this.lines++;
+  }
+
+  /** The line of byte `i` of the part being checked (its line feeds are already noted). */
+  private lineOf(i: number): number {
+    return this.lineAt(this.offset + i);
+  }
+
+  /** Line number (from 1) of a byte offset: one more than the line feeds before it. */
+  lineAt(offset: number): number {
+    let lo = 0;
+    let hi = this.lineFeedCount;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (this.lineFeeds[mid]! < offset) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo + 1;
+  }
+}
+
+/**
+ * parseClassList for a file on disk, read as streams (design.md §6: uploads are not held in
+ * memory): a first pass checks the bytes are UTF-8 text, a second parses them with csv-parse.
+ * Two passes keep the order of the checks (not text → refused before any CSV error), and a
+ * class list is at most 2 MB, so reading it twice costs milliseconds.
+ */
+export async function parseClassListFile(
+  path: string,
+  size: number,
+  chunkSize = 64 * 1024,
+): Promise<ParsedClassList> {
+  if (size === 0)
+    throw new CsvFileError('The file is empty. Choose the class list CSV file and try again.');
+  if (size > CLASS_IMPORT_MAX_BYTES) {
+    throw new CsvFileError(
+      `The file is ${mb(size)}; the limit is ${mb(CLASS_IMPORT_MAX_BYTES)} per import. Split the class list into smaller files.`,
+    );
+  }
+
+  // The first 64 KB (or the whole file) decide the byte-order mark and the delimiter.
+  const HEAD = 64 * 1024;
+  const checker = new TextChecker();
+  let bom = 0;
+  let headParts: Buffer[] = [];
+  let headLength = 0;
+  let head: Buffer | null = null;
+  const takeHead = () => {
+    head = Buffer.concat(headParts);
+    headParts = [];
+    if (head[0] === 0xef && head[1] === 0xbb && head[2] === 0xbf) {
+      bom = 3;
+      head = head.subarray(3);
+    }
+    checker.push(head);
+  };
+  for await (const chunk of createReadStream(path, { highWaterMark: chunkSize })) {
+    if (head !== null) {
+      checker.push(chunk as Buffer);
+      continue;
+    }
+    headParts.push(chunk as Buffer);
+    headLength += (chunk as Buffer).length;
+    if (headLength >= HEAD) takeHead();
+  }
+  if (head === null) takeHead();
+  checker.end();
+  if (!head || (head as Buffer).length === 0)
+    throw new CsvFileError('The file is empty. Choose the class list CSV file and try again.');
+  const delimiter = detectDelimiter(head as Buffer);
+
+  const rows: { line: number; cells: string[] }[] = [];
+  let dataRows = 0;
+  let end = 0;
+  const parser = createReadStream(path, { start: bom, highWaterMark: chunkSize }).pipe(
+    parseStream({ delimiter, relax_column_count: true, info: true, skip_empty_lines: false }),
+  );
+  try {
+    for await (const r of parser as AsyncIterable<{ record: string[]; info: { bytes: number } }>) {
+      // Each record starts where the previous one ended (its start line, as in readRecords).
+      const line = checker.lineAt(end);
+      end = r.info.bytes;
+      if (r.record.every((c) => c.trim() === '')) continue;
+      if (rows.length > 0) dataRows++;
+      // Past the limit the rows are only counted, for the message.
+      if (dataRows <= CLASS_IMPORT_MAX_ROWS) rows.push({ line, cells: r.record });
+    }
+  } catch (err) {
+    if (err instanceof CsvError) throw new CsvFileError(describeCsvError(err));
+    throw err;
+  }
+  return toClassList(rows, dataRows, delimiter);
 }

@@ -2,6 +2,7 @@ import type { ApiErrorBody, ImportReport } from '@stavemark/shared';
 import {
   API_BASE,
   ApiError,
+  apiRequest,
   refreshSession,
   SESSION_ENDED_NOTICE,
   SessionEndedError,
@@ -15,8 +16,28 @@ import { sessionStore } from '@/lib/session-store';
 export interface TransferProgress {
   /** Sending the file, then waiting while the server checks or applies it. */
   phase: 'uploading' | 'processing';
-  /** 0–1 while uploading; null while the server works (no measure of its progress). */
+  /** 0–1 while uploading, and while the server works as it reports; null when not known yet. */
   fraction: number | null;
+  /** What the server is doing, in its words (while processing). */
+  step?: string;
+}
+
+/** GET /api/classes/import/progress/{id}: how far the server has come. */
+interface ServerProgress {
+  phase: 'reading' | 'checking' | 'writing' | 'done';
+  done: number;
+  total: number;
+  step: string;
+}
+
+/** Checking rows is the first half of the bar, writing the second (a dry run only checks). */
+export function processingFraction(p: ServerProgress, dryRun: boolean): number | null {
+  if (p.phase === 'done') return 1;
+  if (p.phase === 'reading') return 0;
+  if (p.total <= 0) return null;
+  const part = Math.min(1, p.done / p.total);
+  if (dryRun) return p.phase === 'checking' ? part : 1;
+  return p.phase === 'checking' ? part / 2 : 0.5 + part / 2;
 }
 
 function toApiError(status: number, text: string): ApiError {
@@ -75,22 +96,48 @@ function xhrUpload(
   });
 }
 
-/** POST /api/classes/import with the file; resolves with the report or rejects with the API's error. */
+/**
+ * POST /api/classes/import with the file; resolves with the report or rejects with the API's
+ * error. Upload progress comes from XMLHttpRequest; once the file is sent, the server's own
+ * progress is polled (through the API client, so its token renewal applies) until the answer.
+ */
 export function importClassList(
   file: File,
   dryRun: boolean,
   onProgress: (p: TransferProgress) => void = () => {},
+  pollMs = 400,
 ): Promise<ImportReport> {
+  const progressId = crypto.randomUUID();
   const form = new FormData();
+  form.append('progressId', progressId); // before the file, so the server has it when the file arrives
   form.append('file', file, file.name);
   return withRenewal(async (token) => {
     onProgress({ phase: 'uploading', fraction: 0 });
+    let finished = false;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const poll = async () => {
+      try {
+        const p = await apiRequest<ServerProgress>(`/classes/import/progress/${progressId}`);
+        if (!finished)
+          onProgress({ phase: 'processing', fraction: processingFraction(p, dryRun), step: p.step });
+      } catch {
+        // Not known (yet, or on another server): the bar stays as it is.
+      }
+      if (!finished) timer = setTimeout(() => void poll(), pollMs);
+    };
     const res = await xhrUpload(
       `/classes/import${dryRun ? '?dryRun=true' : ''}`,
       form,
       token,
-      onProgress,
-    );
+      (p) => {
+        onProgress(p);
+        if (p.phase === 'processing' && timer === undefined && !finished)
+          timer = setTimeout(() => void poll(), pollMs);
+      },
+    ).finally(() => {
+      finished = true;
+      clearTimeout(timer);
+    });
     if (res.status === 401) return { status: 401, value: undefined as unknown as ImportReport };
     if (res.status < 200 || res.status >= 300) throw toApiError(res.status, res.text);
     return { status: res.status, value: JSON.parse(res.text) as ImportReport };

@@ -1,5 +1,5 @@
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { render, screen, waitFor } from '@testing-library/react';
+import { act, render, screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { PrimeReactProvider } from 'primereact/api';
@@ -105,5 +105,31 @@ describe('the import dialog', () => {
       ),
     ).toBeInTheDocument();
     expect(screen.getByText(/2017-02-30/)).toBeInTheDocument();
+  });
+});
+
+describe('the import dialog’s progress', () => {
+  beforeEach(() => importMock.mockReset());
+
+  it('shows the upload, then the server’s own progress as a filling bar with its step', async () => {
+    let tell: (p: { phase: 'uploading' | 'processing'; fraction: number | null; step?: string }) => void = () => {};
+    let finish: (r: ImportReport) => void = () => {};
+    importMock.mockImplementationOnce((_file, _dry, onProgress) => {
+      tell = onProgress!;
+      return new Promise<ImportReport>((resolve) => (finish = resolve));
+    });
+    const user = setup();
+    await user.upload(screen.getByLabelText('Class list file (CSV)'), file());
+    await user.click(screen.getByRole('button', { name: 'Check the file' }));
+    act(() => tell({ phase: 'uploading', fraction: 0.4 }));
+    expect(await screen.findByText('Uploading the file… 40%')).toBeInTheDocument();
+    expect(screen.getByRole('progressbar', { name: 'Upload progress' })).toHaveAttribute('aria-valuenow', '40');
+    act(() => tell({ phase: 'processing', fraction: null }));
+    expect(await screen.findByText('Checking: waiting for the server…')).toBeInTheDocument();
+    act(() => tell({ phase: 'processing', fraction: 0.71, step: 'Checking every row' }));
+    expect(await screen.findByText('Checking: Checking every row… 71%')).toBeInTheDocument();
+    expect(screen.getByRole('progressbar', { name: 'Import progress' })).toHaveAttribute('aria-valuenow', '71');
+    act(() => finish(report()));
+    expect(await screen.findByText(/1 row has an error/)).toBeInTheDocument();
   });
 });

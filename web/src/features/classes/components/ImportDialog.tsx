@@ -29,9 +29,10 @@ type Step =
   | { kind: 'failed'; message: string; report?: ImportReport };
 
 function progressText(what: 'check' | 'apply', p: TransferProgress): string {
-  if (p.phase === 'uploading')
-    return `Uploading the file… ${p.fraction === null ? '' : `${Math.round(p.fraction * 100)}%`}`;
-  return what === 'check' ? 'Checking every row…' : 'Importing: writing every row in one step…';
+  const percent = p.fraction === null ? '' : ` ${Math.round(p.fraction * 100)}%`;
+  if (p.phase === 'uploading') return `Uploading the file…${percent}`;
+  const doing = what === 'check' ? 'Checking' : 'Importing';
+  return p.step ? `${doing}: ${p.step}…${percent}` : `${doing}: waiting for the server…`;
 }
 
 /** Choose a file → dry run (every row with its outcome) → import when there are no errors. */
@@ -188,7 +189,7 @@ export function ImportDialog({ visible, onHide }: Props) {
               value={Math.round(step.progress.fraction * 100)}
               showValue={false}
               style={{ height: '6px' }}
-              aria-label="Upload progress"
+              aria-label={step.progress.phase === 'uploading' ? 'Upload progress' : 'Import progress'}
             />
           )}
         </div>
