@@ -21,6 +21,7 @@ import { OutboxModule } from './outbox/outbox.module.js';
 import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
 import { StorageModule } from './storage/storage.module.js';
+import { RecordingsModule } from './recordings/recordings.module.js';
 
 @Module({
   imports: [
@@ -50,6 +51,7 @@ import { StorageModule } from './storage/storage.module.js';
     SittingsModule,
     MarkingModule,
     StorageModule,
+    RecordingsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })
