@@ -71,6 +71,8 @@ export const paths = {
     href: (date?: string) => `/schedule${date ? `?date=${encodeURIComponent(date)}` : ''}`,
     roles: ['admin', 'teacher', 'examiner'],
   },
+  // Recordings (issue 6): the admin's retention period.
+  recordingSettings: { path: '/recordings/settings', href: () => '/recordings/settings', roles: ['admin'] },
 } as const satisfies Record<
   string,
   { path: string; href: (...args: never[]) => string; roles: readonly Role[] }
