@@ -21,6 +21,7 @@ import { OutboxModule } from './outbox/outbox.module.js';
 import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
 import { StorageModule } from './storage/storage.module.js';
+import { ResultsModule } from './results/results.module.js';
 import { RecordingsModule } from './recordings/recordings.module.js';
 
 @Module({
@@ -51,6 +52,7 @@ import { RecordingsModule } from './recordings/recordings.module.js';
     SittingsModule,
     MarkingModule,
     StorageModule,
+    ResultsModule,
     RecordingsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],

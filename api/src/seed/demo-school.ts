@@ -4,6 +4,7 @@ import type { Role } from '@stavemark/shared';
 import { hashPassword } from '../auth/passwords.js';
 import { seedStarterLibrary } from '../rubrics/starter-library.js';
 import { seedDemoSittings } from '../sittings/demo-sittings.js';
+import { seedDemoYear } from './demo-year.js';
 
 export const DEMO_PASSWORD = 'stavemark-demo';
 
@@ -147,5 +148,6 @@ export async function seedDemo(em: EntityManager, data: DemoSchool, today: strin
   for (const other of data.otherOrganisations) await seedOrganisation(em, other, today, hash);
   await seedStarterLibrary(em, organisationId);
   await seedDemoSittings(em, organisationId, today);
+  await seedDemoYear(em, organisationId, today);
   return { organisationId };
 }
