@@ -61,7 +61,8 @@ describe('recordings', () => {
     ellisId = ellis.student_id;
     priyaOnlySlot = rows.find((r) => r.single && r.pupil_number !== 'KL1021')!.slot_id;
     guardianOfEllis = ((await t.db.query(`SELECT id FROM guardians WHERE student_id = $1`, [ellisId])) as { id: string }[])[0]!.id;
-  });
+    // The demo school (with its year of marks) and six sign-ins: slow on a loaded machine.
+  }, 180_000);
   afterAll(async () => {
     await t.close().catch(() => undefined);
     rmSync(dir, { recursive: true, force: true });
