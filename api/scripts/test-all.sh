@@ -20,6 +20,7 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib/env.sh"
 ALL_SUITES=(shared web api e2e browser)
 TEST_MAIL_CATCHER_PORT="${TEST_MAIL_CATCHER_PORT:-2526}"
 TEST_MAIL_CATCHER_DIR="${TEST_MAIL_CATCHER_DIR:-$LOCAL_DIR/mail-test}"
+TEST_STORAGE_DIR="${TEST_STORAGE_DIR:-$LOCAL_DIR/storage-test}"
 E2E_PORT="${E2E_PORT:-3100}"
 E2E_URL="http://127.0.0.1:$E2E_PORT"
 E2E_ACCESS_TOKEN_TTL_SECONDS=5 # short, so the browser tests see a silent refresh
@@ -185,6 +186,7 @@ fi
 if wants browser && ! build_ok web; then not_run browser "the web build failed or web/ is not present"; fi
 
 if wants_any api e2e browser; then
+  rm -rf "$TEST_STORAGE_DIR" # under the run lock: no other run of this checkout is using it
   mkdir -p "$TEST_MAIL_CATCHER_DIR"
   MAIL_CATCHER_DIR="$TEST_MAIL_CATCHER_DIR" bash "$STAVEMARK_SCRIPTS/mail.sh" clear >/dev/null
   if MAIL_CATCHER_PORT="$TEST_MAIL_CATCHER_PORT" MAIL_CATCHER_DIR="$TEST_MAIL_CATCHER_DIR" \
@@ -199,6 +201,8 @@ fi
 TEST_ENV=(
   "SMTP_HOST=127.0.0.1" "SMTP_PORT=$TEST_MAIL_CATCHER_PORT"
   "MAIL_CATCHER_PORT=$TEST_MAIL_CATCHER_PORT" "MAIL_CATCHER_DIR=$TEST_MAIL_CATCHER_DIR"
+  # Stored files of test runs (recordings) stay apart from the demo's, emptied per run.
+  "STORAGE_DIR=$TEST_STORAGE_DIR"
 )
 
 # run_suite NAME DIR REPORT CMD...: runs one suite and records how it ended.

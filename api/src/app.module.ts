@@ -24,6 +24,7 @@ import { StorageModule } from './storage/storage.module.js';
 import { ResultsModule } from './results/results.module.js';
 import { AgreementModule } from './agreement/agreement.module.js';
 import { StandardisationModule } from './standardisation/standardisation.module.js';
+import { RecordingsModule } from './recordings/recordings.module.js';
 
 @Module({
   imports: [
@@ -56,6 +57,7 @@ import { StandardisationModule } from './standardisation/standardisation.module.
     ResultsModule,
     AgreementModule,
     StandardisationModule,
+    RecordingsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

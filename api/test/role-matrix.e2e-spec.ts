@@ -525,6 +525,40 @@ const AGREEMENT_ROWS: Row[] = [
   // Marks missing: 400 with each listed.
   { method: 'post', route: '/api/standardisation/exercises/{id}/attempt/submit', path: () => `/api/standardisation/exercises/${ac.attemptId}/attempt/submit`, body: () => ({ marks: [] }), expect: examinerOnly(400) },
   { method: 'get', route: '/api/standardisation/deviations', path: () => '/api/standardisation/deviations', expect: examinerOnly(200) },
+// ---- Recordings (issue 6 §6) ---------------------------------------------------------------
+// A slot's recordings: the candidate's teachers, admins, the candidate, and the slot's examiners
+// while the sitting runs; another examiner's slot is not there (404). Uploads need a guardian's
+// consent for a minor (Greta, KL1007, has it). Each deleting caller meets a recording of its own.
+interface RecordingCtx {
+  recordingId: string;
+  deletable: Record<Editor, string>;
+}
+const rc = {} as RecordingCtx;
+const wav = () => ({ name: 'matrix.wav', content: wavFile({ seconds: 0.25 }) });
+
+async function prepareRecordings(): Promise<void> {
+  const teacher = { Authorization: `Bearer ${await tokenFor(EMAIL.teacher)}` };
+  const add = async () => {
+    const res = await api().post(`/api/slots/${mc.slotId}/recordings`).set(teacher).attach('file', wavFile({ seconds: 0.25 }), { filename: 'setup.wav' });
+    if (res.status !== 201) throw new Error(`setup: expected 201, got ${res.status} ${res.text}`);
+    return (res.body as { id: string }).id;
+  };
+  rc.recordingId = await add();
+  rc.deletable = { admin: await add(), teacher: await add() };
+}
+
+const RECORDING_ROWS: Row[] = [
+  { method: 'get', route: '/api/slots/{id}/recordings', path: () => `/api/slots/${mc.slotId}/recordings`, expect: { ...members(200), student: 404, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/slots/{id}/recordings', path: () => `/api/slots/${mc.otherSlotId}/recordings`, expect: { ...members(200), examiner: 404, student: 404, otherOrgAdmin: 404 } },
+  { method: 'post', route: '/api/slots/{id}/recordings', path: () => `/api/slots/${mc.slotId}/recordings`, file: wav, expect: { none: 401, admin: 201, teacher: 201, examiner: 403, student: 404, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/students/{id}/recordings', path: () => `/api/students/${tc.ownStudentId}/recordings`, expect: { ...members(200), examiner: 403, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/students/{id}/recordings', path: () => `/api/students/${tc.otherStudentId}/recordings`, expect: { ...members(200), teacher: 404, examiner: 403, student: 404, otherOrgAdmin: 404 } },
+  { method: 'post', route: '/api/students/{id}/recordings', path: () => `/api/students/${tc.ownStudentId}/recordings`, file: wav, expect: { none: 401, admin: 201, teacher: 201, examiner: 403, student: 201, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/recordings/{id}/playback', path: () => `/api/recordings/${rc.recordingId}/playback`, expect: { ...members(200), student: 404, otherOrgAdmin: 404 } },
+  { method: 'delete', route: '/api/recordings/{id}', path: (_c, caller) => `/api/recordings/${rc.deletable[editorOf(caller)]}`, expect: { none: 401, admin: 204, teacher: 204, examiner: 403, student: 404, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/recording-settings', path: () => '/api/recording-settings', expect: adminOnly(200) },
+  { method: 'put', route: '/api/recording-settings', path: () => '/api/recording-settings', body: () => ({ retentionDays: 180 }), expect: adminOnly(200) },
+  { method: 'put', route: '/api/sittings/{id}/recorded-exam', path: () => `/api/sittings/${sc.draftId}/recorded-exam`, body: () => ({ recordedExam: false }), expect: planners(200) },
 ];
 
 let seq = 0;
@@ -568,6 +602,7 @@ const ROWS: Row[] = [
   ...SITTING_ROWS,
   ...MARKING_ROWS,
   ...AGREEMENT_ROWS,
+  ...RECORDING_ROWS,
 ];
 
 describe('role matrix', () => {
@@ -586,6 +621,7 @@ describe('role matrix', () => {
     await prepareSittings();
     await prepareMarking();
     await prepareAgreement();
+    await prepareRecordings();
     // Every feature's set-up runs here, over HTTP; on a loaded machine it outgrows the default 30 s.
   }, 120_000);
 

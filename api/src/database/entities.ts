@@ -30,6 +30,7 @@ import { MarkChange } from '../marking/entities/mark-change.entity.js';
 import { Result } from '../results/entities/result.entity.js';
 import { StandardisationExercise } from '../standardisation/entities/standardisation-exercise.entity.js';
 import { StandardisationAttempt } from '../standardisation/entities/standardisation-attempt.entity.js';
+import { Recording } from '../recordings/entities/recording.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -65,4 +66,5 @@ export const entities = [
   Result,
   StandardisationExercise,
   StandardisationAttempt,
+  Recording,
 ];

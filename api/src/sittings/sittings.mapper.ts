@@ -159,5 +159,6 @@ export function toSittingView(plan: PlanLike, access: SittingAccess, o: ViewOpti
       recordOutcomes: o.recordOutcomes,
       changeStatus: o.nextStatuses,
     },
+    recordedExam: s.recordedExam,
   };
 }

@@ -13,3 +13,4 @@ export * from './results.js';
 export * from './starter-library.js';
 export * from './agreement.js';
 export * from './standardisation.js';
+export * from './recordings.js';

@@ -374,6 +374,8 @@ export interface SittingView extends SittingSummary {
   slots: SlotView[];
   pinned: SittingPinned | null;
   permissions: SittingPermissions;
+  /** Candidates may upload their own recording (issue 6 §6). */
+  recordedExam: boolean;
 }
 
 export interface ScheduleEntry {

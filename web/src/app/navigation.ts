@@ -25,6 +25,7 @@ export const navItems: readonly NavItem[] = [
   { to: paths.marking.href(), label: 'Marking', roles: paths.marking.roles },
   { to: paths.agreement.href(), label: 'Agreement', roles: paths.agreement.roles },
   { to: paths.standardisation.href(), label: 'Standardisation', roles: paths.standardisation.roles },
+  { to: paths.recordingSettings.href(), label: 'Recordings', roles: paths.recordingSettings.roles },
 ];
 
 export function navItemsFor(roles: readonly Role[]): NavItem[] {

@@ -91,6 +91,13 @@ export const routes: RouteObject[] = [
           return { element: <RequireAuth roles={paths.outbox.roles}><OutboxPage /></RequireAuth> };
         },
       },
+      {
+        path: paths.recordingSettings.path,
+        lazy: async () => {
+          const { RecordingSettingsPage } = await import('@/features/recordings/pages/RecordingSettingsPage');
+          return { element: <RequireAuth roles={paths.recordingSettings.roles}><RecordingSettingsPage /></RequireAuth> };
+        },
+      },
       // Rubrics and requirement lists: each page its own chunk, guarded by the roles in paths.
       ...(
         [

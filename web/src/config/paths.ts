@@ -98,6 +98,8 @@ export const paths = {
     roles: ['admin', 'teacher', 'examiner'],
   },
   standardisationDeviations: { path: '/standardisation/my-deviations', href: () => '/standardisation/my-deviations', roles: ['examiner'] },
+  // Recordings (issue 6): the admin's retention period.
+  recordingSettings: { path: '/recordings/settings', href: () => '/recordings/settings', roles: ['admin'] },
 } as const satisfies Record<
   string,
   { path: string; href: (...args: never[]) => string; roles: readonly Role[] }

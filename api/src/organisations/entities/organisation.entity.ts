@@ -17,4 +17,8 @@ export class Organisation {
 
   @CreateDateColumn({ type: 'timestamptz' })
   createdAt: Date;
+
+  /** Days a recording is kept before the retention job deletes it (admin-set; issue 6 §6). */
+  @Column({ type: 'integer', default: 180 })
+  recordingRetentionDays: number;
 }

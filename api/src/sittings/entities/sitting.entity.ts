@@ -105,4 +105,8 @@ export class Sitting implements OrgOwned {
 
   @OneToMany(() => Slot, (s) => s.sitting)
   slots?: Relation<Slot[]>;
+
+  /** A recorded exam: candidates may upload their own recording for their slot (issue 6 §6). */
+  @Column({ type: 'boolean', default: false })
+  recordedExam: boolean;
 }

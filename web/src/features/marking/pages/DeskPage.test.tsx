@@ -168,4 +168,57 @@ describe('the marking desk', () => {
     );
     expect(screen.getByRole('button', { name: 'Submit sheet' })).toBeInTheDocument();
   });
+
+  it('plays the slot’s recording on the desk without taking the flag and digit keys', async () => {
+    const saved = (req: { body: unknown }) => {
+      const b = req.body as { cell: string; value: number; changeId: string; baseVersion: number };
+      return json(200, { status: 'applied', cell: b.cell, value: b.value, version: b.baseVersion + 1, changeId: b.changeId });
+    };
+    mockApi({
+      'GET /api/slots/s1/desk': () => json(200, desk()),
+      'POST /api/mark-sheets/sh1/cells': saved,
+      'GET /api/slots/s1/recordings': () =>
+        json(200, {
+          slotId: 's1',
+          canUpload: false,
+          uploadBlockedReason: null,
+          recordedExam: false,
+          maxBytes: 200 * 1024 * 1024,
+          items: [
+            {
+              id: 'r1',
+              purpose: 'slot',
+              slotId: 's1',
+              studentId: 'st1',
+              contentType: 'audio/wav',
+              kind: 'audio',
+              sizeBytes: 32044,
+              durationSeconds: 60,
+              originalName: 'take.wav',
+              uploadedBy: 'Idris Calloway',
+              createdAt: new Date().toISOString(),
+              expiresAt: new Date(Date.now() + 180 * 86_400_000).toISOString(),
+              playbackUrl: '/api/media/a.b',
+              playbackExpiresAt: new Date(Date.now() + 300_000).toISOString(),
+              canDelete: false,
+            },
+          ],
+        }),
+    });
+    renderApp('/marking/slots/s1', makeSession(makeUser(['examiner'])));
+    const play = await screen.findByRole('button', { name: 'Play recording 1 of Ellis Northcott' });
+    // The phase is remembered per sheet: the test before this one left it at the write-up.
+    fireEvent.click(screen.getByRole('tab', { name: 'While playing' }));
+    // While playing: a flag key pressed with the player focused still counts.
+    play.focus();
+    fireEvent.keyDown(play, { key: 'f' });
+    await waitFor(() => expect(screen.getByTestId('count-slip')).toHaveTextContent('1'));
+    // Write-up: the player stays on the desk and a digit still marks the focused row.
+    fireEvent.click(screen.getByRole('tab', { name: 'Write-up' }));
+    expect(screen.getByRole('slider', { name: 'Position' })).toBeInTheDocument();
+    const first = screen.getByRole('group', { name: /Request 1, Note accuracy/ });
+    first.focus();
+    fireEvent.keyDown(first, { key: '4' });
+    expect(screen.getByRole('group', { name: /Request 1, Freedom from tension/ })).toHaveFocus();
+  });
 });

@@ -7,6 +7,7 @@ import { useCurrentUser } from '@/lib/auth';
 import { Alert } from '@/components/Alert';
 import { ErrorMessage } from '@/components/ErrorMessage';
 import { PageLoading } from '@/components/PageLoading';
+import { SlotRecordingsPanel } from '@/features/recordings';
 import { useDesk } from '../api/get-desk';
 import { useOpenSitting, useStartSlot } from '../api/start-slot';
 import { useSubmitSheet } from '../api/submit-sheet';
@@ -159,6 +160,7 @@ function Desk({ desk, sheet: view }: { desk: DeskView; sheet: MarkSheetView }) {
       </div>
 
       <Conflicts sheet={sheet} />
+      <SlotRecordingsPanel slotId={desk.slot.id} candidate={desk.slot.candidate.name} variant="desk" />
 
       {phase === 'playing' ? (
         <PlayingPhase

@@ -88,6 +88,7 @@ function sitting(over: Partial<SittingView> = {}): SittingView {
     ],
     pinned: null,
     permissions: { edit: true, recordOutcomes: false, changeStatus: ['scheduled'] },
+    recordedExam: false,
     ...over,
   };
 }

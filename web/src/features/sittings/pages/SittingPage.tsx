@@ -5,6 +5,7 @@ import { Tag } from 'primereact/tag';
 import { ConfirmDialog, confirmDialog } from 'primereact/confirmdialog';
 import type { SittingStatus, SittingView, SlotOutcome, SlotView } from '@stavemark/shared';
 import { paths } from '@/config/paths';
+import { SittingRecordings } from '@/features/recordings';
 import { ErrorMessage } from '@/components/ErrorMessage';
 import { PageLoading } from '@/components/PageLoading';
 import { activeMembership, useCurrentUser } from '@/lib/auth';
@@ -321,6 +322,8 @@ export function SittingPage() {
         </div>
         <SlotTable sitting={s} actions={actions} busy={busy} canPlan={canPlan} />
       </section>
+
+      <SittingRecordings sitting={s} />
 
       {s.permissions.edit && (
         <>
