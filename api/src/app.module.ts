@@ -21,6 +21,7 @@ import { OutboxModule } from './outbox/outbox.module.js';
 import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
 import { ResultsModule } from './results/results.module.js';
+import { ModerationModule } from './moderation/moderation.module.js';
 
 @Module({
   imports: [
@@ -50,6 +51,7 @@ import { ResultsModule } from './results/results.module.js';
     SittingsModule,
     MarkingModule,
     ResultsModule,
+    ModerationModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

@@ -28,6 +28,7 @@ import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
 import { MarkCell } from '../marking/entities/mark-cell.entity.js';
 import { MarkChange } from '../marking/entities/mark-change.entity.js';
 import { Result } from '../results/entities/result.entity.js';
+import { ModerationCase } from '../moderation/entities/moderation-case.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -61,4 +62,5 @@ export const entities = [
   MarkCell,
   MarkChange,
   Result,
+  ModerationCase,
 ];
