@@ -20,6 +20,7 @@ import { StudentsModule } from './students/students.module.js';
 import { OutboxModule } from './outbox/outbox.module.js';
 import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
+import { StorageModule } from './storage/storage.module.js';
 import { ResultsModule } from './results/results.module.js';
 import { ModerationModule } from './moderation/moderation.module.js';
 
@@ -50,6 +51,7 @@ import { ModerationModule } from './moderation/moderation.module.js';
     OutboxModule.forEnvironment(),
     SittingsModule,
     MarkingModule,
+    StorageModule,
     ResultsModule,
     ModerationModule,
   ],
