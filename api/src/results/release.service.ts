@@ -6,6 +6,7 @@ import {
   OPEN_MODERATION,
   TENSION_CAUTION,
   type CellValue,
+  type ReleaseListView,
   type ReleaseResultsInput,
   type ReleaseSummary,
   type ResultDetail,
@@ -240,6 +241,63 @@ export class ReleaseService {
     });
     this.mail.afterCommit();
     return summary;
+  }
+
+  /** The caller's students' results in a sitting, for the release page. */
+  async releaseList(sittingId: string): Promise<ReleaseListView> {
+    return this.db.transaction(async (em) => {
+      const who = await resultCaller(em);
+      const sitting = await new ScopedRepository(em.getRepository(Sitting), 'sitting').getById(
+        sittingId,
+      );
+      const taught =
+        who.admin ||
+        (who.teaches.size > 0 &&
+          (await em.count(Slot, { where: { sittingId, studentId: In([...who.teaches]) } })) > 0);
+      if (!taught) throw notFound('sitting');
+      const rows = (
+        await new ScopedRepository(em.getRepository(Result), 'result').find({
+          where: { sittingId },
+          relations: { student: true },
+        })
+      ).filter((r) => who.admin || who.teaches.has(r.studentId));
+      const open = await this.openFlags(em, sittingId);
+      const blockedBy =
+        sitting.status !== 'marking_closed' && sitting.status !== 'published'
+          ? 'Marking is still open: results are computed when marking closes.'
+          : open.length
+            ? ReleaseService.blockMessage(open)
+            : null;
+      return {
+        sitting: {
+          id: sitting.id,
+          title: sitting.title,
+          date: sitting.date,
+          status: sitting.status,
+        },
+        blockedBy,
+        results: rows
+          .map((r) => ({
+            resultId: r.id,
+            studentId: r.studentId,
+            name: nameOf(r.student!),
+            pupilNumber: r.student!.pupilNumber,
+            total: r.total,
+            outOf: r.outOf,
+            bandLabel: r.bandLabel,
+            releasedAt: r.releasedAt?.toISOString() ?? null,
+            teacherNote: r.teacherNote,
+          }))
+          .sort((a, b) => a.name.localeCompare(b.name)),
+      };
+    });
+  }
+
+  /** The signed-in student's own released results. */
+  async mine(): Promise<ResultSummary[]> {
+    const studentId = await this.db.transaction(async (em) => (await resultCaller(em)).studentId);
+    if (!studentId) return [];
+    return this.forStudent(studentId);
   }
 
   // ---------- reading results ----------

@@ -2,6 +2,7 @@ import { Controller, Get, HttpCode, Post } from '@nestjs/common';
 import { ApiConflictResponse, ApiTags } from '@nestjs/swagger';
 import {
   releaseResultsSchema,
+  type ReleaseListView,
   type ReleaseResultsInput,
   type ReleaseSummary,
   type ResultDetail,
@@ -35,6 +36,27 @@ export class ResultsController {
     @ValidBody(releaseResultsSchema) body: ReleaseResultsInput,
   ): Promise<ReleaseSummary> {
     return this.release.release(id, body);
+  }
+
+  @Get('sittings/:id/release')
+  @Route({
+    summary: 'The results a caller may release in a sitting, with their release state',
+    roles: ['admin', 'teacher'],
+    owned: true,
+    description:
+      'A teacher’s own students’ results, an admin’s all; blockedBy says why release is refused now.',
+  })
+  releaseList(@IdParam() id: string): Promise<ReleaseListView> {
+    return this.release.releaseList(id);
+  }
+
+  @Get('me/results')
+  @Route({
+    summary: 'The signed-in student’s own released results, newest first',
+    roles: ['student'],
+  })
+  mine(): Promise<ResultSummary[]> {
+    return this.release.mine();
   }
 
   @Get('students/:studentId/results')

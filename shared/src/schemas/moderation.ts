@@ -171,3 +171,21 @@ export interface TakeHomeReport {
   /** The health caution when tension is among the next steps (design.md §10); else null. */
   caution: string | null;
 }
+
+/** What a teacher may release in a sitting: their students' results (an admin's: all). */
+export interface ReleaseListView {
+  sitting: { id: string; title: string; date: string; status: string };
+  /** Why release is refused now (open flags, marking not closed), or null. */
+  blockedBy: string | null;
+  results: {
+    resultId: string;
+    studentId: string;
+    name: string;
+    pupilNumber: string;
+    total: number;
+    outOf: number;
+    bandLabel: string;
+    releasedAt: string | null;
+    teacherNote: string | null;
+  }[];
+}

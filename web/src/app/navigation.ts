@@ -23,6 +23,7 @@ export const navItems: readonly NavItem[] = [
   { to: paths.sittings.href(), label: 'Sittings', roles: paths.sittings.roles },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },
   { to: paths.marking.href(), label: 'Marking', roles: paths.marking.roles },
+  { to: paths.myResults.href(), label: 'My results', roles: paths.myResults.roles },
 ];
 
 export function navItemsFor(roles: readonly Role[]): NavItem[] {
