@@ -17,7 +17,7 @@ export interface TakeHomeInput {
   resultId: string;
   studentName: string;
   sittingTitle: string;
-  /** "Thursday 19 November 2026". */
+  /** "Thursday, 19 November 2026". */
   dateText: string;
   bandLabel: string;
   /** True for the lowest band (below every threshold). */
@@ -75,13 +75,15 @@ export function buildTakeHomeReport(input: TakeHomeInput): TakeHomeReport {
         : `${c.label}: keep it as secure as it is now.`;
     })
     .filter((s) => s.length > 0);
+  if (nextSteps.length === 0)
+    nextSteps.push('Keep the same steady practice: every area is secure at this level.');
 
   const asked = input.profile.requests.filter((r) => r.asked && r.score !== null);
   const best = [...asked].sort((a, b) => (b.score ?? 0) - (a.score ?? 0))[0];
   const least = [...asked].sort((a, b) => (a.score ?? 0) - (b.score ?? 0))[0];
   const items =
     best && least && best.index !== least.index && (best.score ?? 0) > (least.score ?? 0)
-      ? ` The most secure item was the ${lowerFirst(best.label)}; the one with most to gain from practice was the ${lowerFirst(least.label)}.`
+      ? ` The most secure item was the ${best.label}; the one with most to gain from practice was the ${least.label}.`
       : '';
   const outcome = input.belowEveryBand
     ? `${first} has not yet reached a pass in this mock exam; the next steps below show where practice will count most.`
@@ -104,7 +106,7 @@ export function buildTakeHomeReport(input: TakeHomeInput): TakeHomeReport {
   };
 }
 
-/** "Thursday 19 November 2026" for a YYYY-MM-DD date. */
+/** "Thursday, 19 November 2026" (en-GB, as the web shows dates) for a YYYY-MM-DD date. */
 export function longDate(date: string): string {
   const [y, m, d] = date.split('-').map(Number) as [number, number, number];
   return new Intl.DateTimeFormat('en-GB', {
