@@ -23,6 +23,8 @@ import { MarkingModule } from './marking/marking.module.js';
 import { StorageModule } from './storage/storage.module.js';
 import { ResultsModule } from './results/results.module.js';
 import { ModerationModule } from './moderation/moderation.module.js';
+import { AgreementModule } from './agreement/agreement.module.js';
+import { StandardisationModule } from './standardisation/standardisation.module.js';
 
 @Module({
   imports: [
@@ -54,6 +56,8 @@ import { ModerationModule } from './moderation/moderation.module.js';
     StorageModule,
     ResultsModule,
     ModerationModule,
+    AgreementModule,
+    StandardisationModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

@@ -29,6 +29,8 @@ import { MarkCell } from '../marking/entities/mark-cell.entity.js';
 import { MarkChange } from '../marking/entities/mark-change.entity.js';
 import { Result } from '../results/entities/result.entity.js';
 import { ModerationCase } from '../moderation/entities/moderation-case.entity.js';
+import { StandardisationExercise } from '../standardisation/entities/standardisation-exercise.entity.js';
+import { StandardisationAttempt } from '../standardisation/entities/standardisation-attempt.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -63,4 +65,6 @@ export const entities = [
   MarkChange,
   Result,
   ModerationCase,
+  StandardisationExercise,
+  StandardisationAttempt,
 ];

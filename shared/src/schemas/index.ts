@@ -11,3 +11,6 @@ export * from './sittings.js';
 export * from './marking.js';
 export * from './results.js';
 export * from './moderation.js';
+export * from './starter-library.js';
+export * from './agreement.js';
+export * from './standardisation.js';
