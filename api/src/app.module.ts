@@ -22,6 +22,7 @@ import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
 import { StorageModule } from './storage/storage.module.js';
 import { ResultsModule } from './results/results.module.js';
+import { ModerationModule } from './moderation/moderation.module.js';
 import { AgreementModule } from './agreement/agreement.module.js';
 import { StandardisationModule } from './standardisation/standardisation.module.js';
 import { RecordingsModule } from './recordings/recordings.module.js';
@@ -55,6 +56,7 @@ import { RecordingsModule } from './recordings/recordings.module.js';
     MarkingModule,
     StorageModule,
     ResultsModule,
+    ModerationModule,
     AgreementModule,
     StandardisationModule,
     RecordingsModule,

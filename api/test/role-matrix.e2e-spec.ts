@@ -561,6 +561,70 @@ const RECORDING_ROWS: Row[] = [
   { method: 'put', route: '/api/sittings/{id}/recorded-exam', path: () => `/api/sittings/${sc.draftId}/recorded-exam`, body: () => ({ recordedExam: false }), expect: planners(200) },
 ];
 
+// ---- Results, moderation and release (issue 7) ---------------------------------------------------
+// Admins and teachers moderate and release (a teacher only for the students they teach, the
+// planner for the whole sitting); students read their own released results. The demo Grade 3 mock
+// is still in progress, so moderation and release answer 409 to those allowed; a sitting an admin
+// planned for Tomasz's diploma pupil is not the demo teacher's to see (404).
+interface ResultsCtx {
+  openSittingId: string;
+  openSlotId: string;
+  foreignSittingId: string;
+  foreignSlotId: string;
+  ownStudentId: string;
+  foreignStudentId: string;
+  examinerId: string;
+}
+const rc = {} as ResultsCtx;
+
+async function prepareResults(): Promise<void> {
+  const admin = { Authorization: `Bearer ${await tokenFor(EMAIL.admin)}` };
+  const ok = <T>(res: { status: number; body: T; text: string }, status: number): T => {
+    if (res.status !== status) throw new Error(`setup: expected ${status}, got ${res.status} ${res.text}`);
+    return res.body;
+  };
+  type View = { id: string; slots: { id: string; studentId: string }[] };
+  const sittings = ok(await api().get('/api/sittings').set(admin), 200) as { id: string; title: string }[];
+  rc.openSittingId = sittings.find((s) => s.title === 'Grade 3 mock — Wednesday Intermediates')!.id;
+  rc.openSlotId = (ok(await api().get(`/api/sittings/${rc.openSittingId}`).set(admin), 200) as View).slots[0]!.id;
+  const student = async (pn: string) => (ok(await api().get(`/api/students?search=${pn}`).set(admin), 200) as { id: string; pupilNumber: string }[]).find((s) => s.pupilNumber === pn)!.id;
+  rc.ownStudentId = await student('KL1021');
+  rc.foreignStudentId = await student('KL1031');
+  const lists = ok(await api().get('/api/requirement-lists').set(admin), 200) as { starterKey: string | null; published: { id: string } | null }[];
+  const g5 = lists.find((l) => l.starterKey === 'grade-5')!.published!.id;
+  const ex = ok(await api().get('/api/examiners').set(admin), 200) as { id: string; email: string }[];
+  rc.examinerId = ex.find((e) => e.email === 'beatrix.oduya@demo.example')!.id;
+  const body = { title: 'Matrix results R1', date: '2030-01-11', room: 'Matrix R1', dayStart: '09:00', dayEnd: '12:00', papers: [{ listVersionId: g5 }], examinerIds: [ex.find((e) => e.email === EMAIL.examiner)!.id] };
+  const created = ok(await api().post('/api/sittings').set(admin).send(body), 201) as View;
+  ok(await api().post(`/api/sittings/${created.id}/candidates`).set(admin).send({ studentIds: [rc.foreignStudentId], listVersionId: g5 }), 200);
+  const v = ok(await api().post(`/api/sittings/${created.id}/status`).set(admin).send({ status: 'scheduled' }), 200) as View;
+  rc.foreignSittingId = v.id;
+  rc.foreignSlotId = v.slots[0]!.id;
+}
+
+const moderators = (ok: number): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: 403, otherOrgAdmin: 404 });
+const resultReaders = (ok: number): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: ok, otherOrgAdmin: 404 });
+const agreeBody = () => ({ marks: { 'mark:0:note_accuracy': 5 }, reason: 'Matrix check of an agreement.' });
+const RESULT_ROWS: Row[] = [
+  { method: 'get', route: '/api/sittings/{id}/moderation', path: () => `/api/sittings/${rc.openSittingId}/moderation`, expect: moderators(409) },
+  { method: 'get', route: '/api/sittings/{id}/moderation', path: () => `/api/sittings/${rc.foreignSittingId}/moderation`, expect: { ...moderators(409), teacher: 404 } },
+  { method: 'post', route: '/api/moderation/slots/{slotId}/agree', path: () => `/api/moderation/slots/${rc.openSlotId}/agree`, body: agreeBody, expect: moderators(409) },
+  { method: 'post', route: '/api/moderation/slots/{slotId}/agree', path: () => `/api/moderation/slots/${rc.foreignSlotId}/agree`, body: agreeBody, expect: { ...moderators(409), teacher: 404 } },
+  { method: 'post', route: '/api/moderation/slots/{slotId}/third-marker', path: () => `/api/moderation/slots/${rc.openSlotId}/third-marker`, body: () => ({ examinerId: rc.examinerId }), expect: moderators(409) },
+  { method: 'post', route: '/api/moderation/slots/{slotId}/third-marker', path: () => `/api/moderation/slots/${rc.foreignSlotId}/third-marker`, body: () => ({ examinerId: rc.examinerId }), expect: { ...moderators(409), teacher: 404 } },
+  { method: 'post', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${rc.openSittingId}/release`, body: () => ({}), expect: moderators(409) },
+  { method: 'post', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${rc.foreignSittingId}/release`, body: () => ({}), expect: { ...moderators(409), teacher: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${rc.openSittingId}/release`, expect: moderators(200) },
+  { method: 'get', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${rc.foreignSittingId}/release`, expect: { ...moderators(200), teacher: 404 } },
+  { method: 'get', route: '/api/me/results', path: () => '/api/me/results', expect: { none: 401, admin: 403, teacher: 403, examiner: 403, student: 200, otherOrgAdmin: 403 } },
+  // The demo student's own results (none released yet: an empty list); another teacher's pupil: 404.
+  { method: 'get', route: '/api/students/{studentId}/results', path: () => `/api/students/${rc.ownStudentId}/results`, expect: resultReaders(200) },
+  { method: 'get', route: '/api/students/{studentId}/results', path: () => `/api/students/${rc.foreignStudentId}/results`, expect: { ...resultReaders(404), admin: 200 } },
+  // No result exists in a freshly seeded school yet: not there for anyone allowed to ask.
+  { method: 'get', route: '/api/results/{id}', path: () => `/api/results/${randomUUID()}`, expect: resultReaders(404) },
+  { method: 'get', route: '/api/results/{id}/report', path: () => `/api/results/${randomUUID()}/report`, expect: resultReaders(404) },
+];
+
 let seq = 0;
 const ROWS: Row[] = [
   { method: 'get', route: '/api/health', path: () => '/api/health', expect: all(200) },
@@ -603,6 +667,7 @@ const ROWS: Row[] = [
   ...MARKING_ROWS,
   ...AGREEMENT_ROWS,
   ...RECORDING_ROWS,
+  ...RESULT_ROWS,
 ];
 
 describe('role matrix', () => {
@@ -622,6 +687,7 @@ describe('role matrix', () => {
     await prepareMarking();
     await prepareAgreement();
     await prepareRecordings();
+    await prepareResults();
     // Every feature's set-up runs here, over HTTP; on a loaded machine it outgrows the default 30 s.
   }, 120_000);
 

@@ -1,3 +1,4 @@
+import type { TakeHomeReport } from '@stavemark/shared';
 import type { MailKind } from './entities/outbound-mail.entity.js';
 
 /** Facts a template needs. Only names and plain facts: the link is added at send time. */
@@ -13,7 +14,28 @@ export interface GuardianNoticeData {
 export interface PasswordResetData {
   displayName: string;
 }
-export type MailData = InvitationData | GuardianNoticeData | PasswordResetData;
+/** The take-home report after results are released (issue 7 §5): plain words, no raw figures. */
+export interface ResultsReportData {
+  organisationName: string;
+  recipientName: string;
+  /** Sent to a guardian about their child, or to the student. */
+  forGuardian: boolean;
+  report: TakeHomeReport;
+}
+/** A flagged pair handed to a third examiner (design.md §4.5). */
+export interface ThirdMarkingData {
+  displayName: string;
+  sittingTitle: string;
+  sittingDate: string;
+  candidate: string;
+  note: string | null;
+}
+export type MailData =
+  | InvitationData
+  | GuardianNoticeData
+  | PasswordResetData
+  | ResultsReportData
+  | ThirdMarkingData;
 
 export interface RenderedMail {
   subject: string;
@@ -68,6 +90,9 @@ ${body}
 }
 
 export function renderMail(kind: MailKind, data: MailData, link: LinkFacts | null): RenderedMail {
+  // Results and third-marking notices carry no one-time link: the reader signs in as usual.
+  if (kind === 'results_report') return renderResultsReport(data as ResultsReportData);
+  if (kind === 'third_marking') return renderThirdMarking(data as ThirdMarkingData);
   if (!link) throw new Error(`A ${kind} e-mail needs its link`);
   switch (kind) {
     case 'invitation': {
@@ -108,6 +133,41 @@ export function renderMail(kind: MailKind, data: MailData, link: LinkFacts | nul
       ]);
     }
   }
+}
+
+function renderResultsReport(d: ResultsReportData): RenderedMail {
+  const r = d.report;
+  const first = r.studentName.split(' ')[0] ?? r.studentName;
+  const bullets = (items: string[]) => items.map((i) => `• ${i}`).join('\n');
+  const paragraphs: string[] = [
+    `Hello ${d.recipientName},`,
+    d.forGuardian
+      ? `${first}'s results from the ${r.sittingTitle} (${r.date}) are ready. Here is a short report in plain words.`
+      : `Your results from the ${r.sittingTitle} (${r.date}) are ready. Here is a short report in plain words.`,
+    r.summary,
+    `What went well:\n${bullets(r.strengths)}`,
+    `What to work on next:\n${bullets(r.nextSteps)}`,
+  ];
+  if (r.teacherNote) paragraphs.push(`A note from ${d.forGuardian ? `${first}'s` : 'your'} teacher:\n${r.teacherNote}`);
+  if (r.caution) paragraphs.push(r.caution);
+  paragraphs.push(
+    d.forGuardian
+      ? `If you have questions, ${first}'s teacher will be glad to talk them through.`
+      : `You can read this report, with your marks and the examiners' comments, in Stavemark under My results.`,
+    `With best wishes,\n${d.organisationName}`,
+  );
+  return compose(`${d.forGuardian ? `${first}'s` : 'Your'} mock-exam report: ${r.sittingTitle}`, paragraphs);
+}
+
+function renderThirdMarking(d: ThirdMarkingData): RenderedMail {
+  const paragraphs = [
+    `Hello ${d.displayName},`,
+    `You are asked to third-mark ${d.candidate} from the ${d.sittingTitle} (${d.sittingDate}): the two examiners' marks are further apart than the moderation tolerance allows.`,
+    `The slot is listed on your Marking page. Mark it as you would any other: you will not see the other examiners' marks until you have submitted yours.`,
+  ];
+  if (d.note) paragraphs.push(`A note from the moderator:\n${d.note}`);
+  paragraphs.push(`With thanks,\nStavemark`);
+  return compose(`Third marking: ${d.candidate}, ${d.sittingTitle}`, paragraphs);
 }
 
 export function lifetimeWords(ms: number): string {

@@ -5,6 +5,7 @@ import { RubricVersion } from '../rubrics/entities/rubric-version.entity.js';
 import { AccessArrangement } from '../sittings/entities/access-arrangement.entity.js';
 import { Slot } from '../sittings/entities/slot.entity.js';
 import { SittingsModule } from '../sittings/sittings.module.js';
+import { ResultsModule } from '../results/results.module.js';
 import { MarkCell } from './entities/mark-cell.entity.js';
 import { MarkChange } from './entities/mark-change.entity.js';
 import { MarkSheet } from './entities/mark-sheet.entity.js';
@@ -25,6 +26,7 @@ import { MarkingService } from './marking.service.js';
       RubricVersion,
     ]),
     SittingsModule,
+    ResultsModule,
   ],
   controllers: [MarkingController],
   providers: [MarkingService],

@@ -28,6 +28,7 @@ import { RequestContext, type Caller } from '../common/request-context.js';
 import { ScopedRepository } from '../common/scoped-repository.js';
 import { StudentFingering } from '../fingerings/entities/student-fingering.entity.js';
 import { toFingeringView } from '../fingerings/fingerings.mapper.js';
+import { ModerationCase } from '../moderation/entities/moderation-case.entity.js';
 import { Organisation } from '../organisations/entities/organisation.entity.js';
 import { toLineView } from '../requirement-lists/requirement-lists.mapper.js';
 import { RubricVersion } from '../rubrics/entities/rubric-version.entity.js';
@@ -35,6 +36,7 @@ import { toCriterion } from '../rubrics/rubrics.mapper.js';
 import { AccessArrangement } from '../sittings/entities/access-arrangement.entity.js';
 import { Slot } from '../sittings/entities/slot.entity.js';
 import { SittingsService } from '../sittings/sittings.service.js';
+import { ResultsService } from '../results/results.service.js';
 import { Person } from '../users/entities/person.entity.js';
 import { MarkCell } from './entities/mark-cell.entity.js';
 import { MarkChange } from './entities/mark-change.entity.js';
@@ -55,7 +57,7 @@ export class CellConflict extends DomainError {
 
 interface SlotFacts {
   slot: Slot;
-  role: 'first' | 'second';
+  role: 'first' | 'second' | 'third';
 }
 
 const TENSION = /tension|freedom/i;
@@ -86,6 +88,7 @@ export class MarkingService {
     @InjectDataSource() private readonly db: DataSource,
     private readonly audit: AuditService,
     private readonly sittings: SittingsService,
+    private readonly results: ResultsService,
   ) {
     this.slots = new ScopedRepository(slotRepo, 'slot');
     this.draws = new ScopedRepository(drawRepo, 'draw');
@@ -110,12 +113,20 @@ export class MarkingService {
       },
     });
     const me = caller.membershipId;
-    const role =
+    let role: SlotFacts['role'] | null =
       slot.examinerMembershipId === me
         ? 'first'
         : slot.secondExaminerMembershipId === me
           ? 'second'
           : null;
+    // A third marker: a flagged pair moderation handed to the caller (design.md §4.5).
+    if (!role) {
+      const third = (await em.query(
+        `SELECT 1 FROM moderation_cases WHERE slot_id = $1 AND organisation_id = $2 AND third_examiner_membership_id = $3 AND status IN ('third_marking', 'third')`,
+        [slot.id, slot.organisationId, me],
+      )) as unknown[];
+      if (third.length) role = 'third';
+    }
     if (!role || !caller.roles.includes('examiner') || slot.sitting!.status === 'draft')
       throw notFound('slot');
     return { slot, role };
@@ -158,6 +169,24 @@ export class MarkingService {
       .orderBy('s.startsAt', 'ASC')
       .addOrderBy('x.position', 'ASC')
       .getMany();
+    // Third marking waits on any day until it is submitted (a flagged pair handed to the caller).
+    const third = await this.slots
+      .qb('x')
+      .innerJoinAndSelect('x.sitting', 's')
+      .innerJoinAndSelect('x.student', 'st')
+      .innerJoinAndSelect('x.paper', 'p')
+      .innerJoinAndSelect('p.listVersion', 'lv')
+      .innerJoin(
+        ModerationCase,
+        'mc',
+        `mc.slotId = x.id AND mc.thirdExaminerMembershipId = :me AND mc.status = 'third_marking'`,
+        { me: caller.membershipId },
+      )
+      .andWhere(`s.status = 'marking_closed'`)
+      .orderBy('s.startsAt', 'ASC')
+      .addOrderBy('x.position', 'ASC')
+      .getMany();
+    for (const x of third) if (!slots.some((y) => y.id === x.id)) slots.push(x);
     const sheets = slots.length
       ? await this.sheets.find({
           where: { slotId: In(slots.map((s) => s.id)), examinerMembershipId: caller.membershipId },
@@ -182,7 +211,12 @@ export class MarkingService {
         endTime: clock(x.endsAt, s.timeZone),
         candidate: `${x.student!.givenName} ${x.student!.familyName}`,
         listName: x.paper!.listVersion!.name,
-        role: x.examinerMembershipId === caller.membershipId ? 'first' : 'second',
+        role:
+          x.examinerMembershipId === caller.membershipId
+            ? 'first'
+            : x.secondExaminerMembershipId === caller.membershipId
+              ? 'second'
+              : 'third',
         outcome: x.outcome,
         sheetStatus: sheetOf.get(x.id)?.status ?? null,
       });
@@ -203,7 +237,11 @@ export class MarkingService {
     return this.db.transaction(async (em) => {
       const facts = await this.markedSlot(em, slotId);
       const { slot } = facts;
-      if (slot.sitting!.status !== 'in_progress') {
+      // A third marker marks after marking closed; everyone else while the sitting runs.
+      if (facts.role === 'third') {
+        if (slot.sitting!.status !== 'marking_closed')
+          throw conflict('Third marking happens while the sitting is in moderation (marking closed).');
+      } else if (slot.sitting!.status !== 'in_progress') {
         throw conflict(
           slot.sitting!.status === 'scheduled'
             ? 'Start the sitting first: it is still scheduled.'
@@ -369,11 +407,14 @@ export class MarkingService {
         .find({ where: { slotId: slot.id }, relations: { examiner: { person: true } } }),
     ]);
     const mine = sheets.find((s) => s.examinerMembershipId === caller.membershipId) ?? null;
+    // The pair sees each other's sheet once both are in; a third marker sees neither (blind).
+    const pair = sheets.filter((s) => s.role !== 'third');
     const allSubmitted =
-      sheets.length > 0 &&
-      sheets.every((s) => s.status === 'submitted') &&
-      (!slot.secondExaminerMembershipId || sheets.length === 2);
-    const other = allSubmitted ? (sheets.find((s) => s !== mine) ?? null) : null;
+      role !== 'third' &&
+      pair.length > 0 &&
+      pair.every((s) => s.status === 'submitted') &&
+      (!slot.secondExaminerMembershipId || pair.length === 2);
+    const other = allSubmitted ? (pair.find((s) => s !== mine) ?? null) : null;
     const cellsOf = async (s: MarkSheet | null) =>
       s
         ? this.cells.withManager(em).find({ where: { sheetId: s.id }, order: { cell: 'ASC' } })
@@ -628,6 +669,12 @@ export class MarkingService {
         },
         em,
       );
+      // A correction after marking closed changes the result (and may raise or clear a flag).
+      const [closed] = (await em.query(
+        `SELECT s.id FROM sittings s JOIN slots x ON x.sitting_id = s.id WHERE x.id = $1 AND s.status = 'marking_closed'`,
+        [sheet.slotId],
+      )) as { id: string }[];
+      if (closed && res.status !== 'conflict') await this.results.computeForSitting(closed.id, em);
       return res;
     });
   }
@@ -869,7 +916,11 @@ export class MarkingService {
           em,
         );
       }
-      return this.deskView(em, await this.markedSlot(em, sheet.slotId));
+      const facts = await this.markedSlot(em, sheet.slotId);
+      // After marking closed (a third marker, a late sheet) the results follow at once.
+      if (facts.slot.sitting!.status === 'marking_closed')
+        await this.results.computeForSitting(facts.slot.sittingId, em);
+      return this.deskView(em, facts);
     });
   }
 

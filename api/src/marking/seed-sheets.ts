@@ -34,8 +34,8 @@ export interface WriteSubmittedSheetInput {
   flags?: Record<string, number>;
   /** Comments by request index or "overall". */
   comments?: Record<string, string>;
-  /** Requests not asked, by index. */
-  notAsked?: number[];
+  /** Requests not asked: by index, or a test on the drawn request (e.g. r => r.kind === 'passage'). */
+  notAsked?: number[] | ((request: Request) => boolean);
   /** Default completed; the first examiner's outcome becomes the slot's when it has none. */
   outcome?: SlotOutcome;
   submittedAt: Date;
@@ -80,9 +80,11 @@ export async function writeSubmittedSheet(
 
   const cells = new Map<string, CellValue>();
   const outcome = input.outcome ?? 'completed';
-  const notAsked = new Set(input.notAsked ?? []);
+  const skip = input.notAsked;
+  const isNotAsked = (r: Request) =>
+    typeof skip === 'function' ? skip(r) : (skip ?? []).includes(r.index);
   for (const r of draw.requests) {
-    if (notAsked.has(r.index)) {
+    if (isNotAsked(r)) {
       cells.set(`asked:${r.index}`, false);
       continue;
     }

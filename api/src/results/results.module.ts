@@ -1,6 +1,8 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { Result } from './entities/result.entity.js';
+import { ReleaseService } from './release.service.js';
+import { ResultsController } from './results.controller.js';
 import { ResultsService } from './results.service.js';
 
 /**
@@ -9,7 +11,8 @@ import { ResultsService } from './results.service.js';
  */
 @Module({
   imports: [TypeOrmModule.forFeature([Result])],
-  providers: [ResultsService],
-  exports: [ResultsService],
+  controllers: [ResultsController],
+  providers: [ResultsService, ReleaseService],
+  exports: [ResultsService, ReleaseService],
 })
 export class ResultsModule {}

@@ -3,6 +3,7 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In, type EntityManager } from 'typeorm';
 import {
+  compareSheets,
   isCountedKind,
   MarkSheetError,
   notesPlayed,
@@ -15,12 +16,14 @@ import {
   type ResultProfile,
   type ScoringCriterion,
   type SheetRequestInput,
+  type SheetScore,
 } from '@stavemark/shared';
 import { now } from '../common/clock.js';
 import { conflict, notFound } from '../common/errors.js';
 import { RequestContext } from '../common/request-context.js';
 import { ScopedRepository } from '../common/scoped-repository.js';
 import { MarkCell } from '../marking/entities/mark-cell.entity.js';
+import { ModerationCase } from '../moderation/entities/moderation-case.entity.js';
 import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
 import { SlotDraw } from '../marking/entities/slot-draw.entity.js';
 import { RubricVersion } from '../rubrics/entities/rubric-version.entity.js';
@@ -53,19 +56,9 @@ export interface ComputeSummary {
   skipped: SkippedSlot[];
 }
 
-interface RubricFacts {
+export interface RubricFacts {
   criteria: (ScoringCriterion & { position: number })[];
 }
-
-/**
- * A hook that may replace the marks a slot is scored from (moderation: agreed marks or a third
- * marker's sheet). Registered by the moderation service so the results core does not depend on it.
- */
-export type MarksOverride = (
-  em: EntityManager,
-  slot: Slot,
-  submitted: MarkSheet[],
-) => Promise<MarksSource | null>;
 
 /**
  * Results (issue 7 §1): one per completed slot, computed with the shared scoring functions from
@@ -74,13 +67,7 @@ export type MarksOverride = (
  */
 @Injectable()
 export class ResultsService {
-  private override: MarksOverride | null = null;
-
   constructor(@InjectDataSource() private readonly db: DataSource) {}
-
-  setMarksOverride(fn: MarksOverride): void {
-    this.override = fn;
-  }
 
   /**
    * (Re)computes every completed slot's result of a sitting from its submitted sheets; absent,
@@ -98,7 +85,10 @@ export class ResultsService {
     if (!sitting) throw notFound('sitting');
     if (!sitting.bandPolicyId)
       throw conflict('This sitting is a draft: it has no pinned versions and no results.');
-    const scope = <T extends Result | Slot | MarkSheet | MarkCell | SlotDraw | BandPolicyVersion>(
+    const scope = <
+      T extends
+        Result | Slot | MarkSheet | MarkCell | SlotDraw | BandPolicyVersion | ModerationCase,
+    >(
       target: new () => T,
       what: string,
     ) => new ScopedRepository<T>(em.getRepository(target), what, () => sitting.organisationId);
@@ -136,11 +126,13 @@ export class ResultsService {
       cellsOf.set(c.sheetId, m);
     }
     const drawOf = new Map(draws.map((d) => [d.slotId, d]));
-    const rubrics = await this.rubrics(
+    const rubrics = await this.loadRubrics(
       em,
       draws.flatMap((d) => d.requests.map((r) => r.rubricVersionId)),
     );
     const existingOf = new Map(existing.map((r) => [r.slotId, r]));
+    const cases = scope(ModerationCase, 'moderation case');
+    const caseOf = new Map((await cases.find({ where: { sittingId } })).map((c) => [c.slotId, c]));
     const summary: ComputeSummary = {
       sittingId,
       computed: 0,
@@ -159,22 +151,22 @@ export class ResultsService {
         summary.skipped.push({ slotId: slot.id, reason: 'No draw: the slot was never started.' });
         continue;
       }
-      const source =
-        (this.override ? await this.override(em, slot, submitted) : null) ??
-        defaultSource(slot, submitted, cellsOf);
+      const totalMarks = slot.paper!.listVersion!.totalMarks;
+      const moderation = await this.moderate(em, cases, slot, submitted, caseOf.get(slot.id), {
+        requests: draw.requests,
+        cellsOf,
+        rubrics,
+        totalMarks,
+        policy,
+      });
+      const source = moderation ?? defaultSource(slot, submitted, cellsOf);
       if (!source) {
         summary.skipped.push({ slotId: slot.id, reason: 'The first examiner has not submitted.' });
         continue;
       }
       let figures: Omit<ResultFigures, 'basis'>;
       try {
-        figures = score(
-          draw.requests,
-          source.cells,
-          rubrics,
-          slot.paper!.listVersion!.totalMarks,
-          policy,
-        );
+        figures = score(draw.requests, source.cells, rubrics, totalMarks, policy);
       } catch (e) {
         if (!(e instanceof MarkSheetError)) throw e;
         summary.skipped.push({ slotId: slot.id, reason: e.message });
@@ -213,7 +205,87 @@ export class ResultsService {
     return summary;
   }
 
-  private async rubrics(em: EntityManager, ids: string[]): Promise<Map<string, RubricFacts>> {
+  /**
+   * Flags for a double-marked pair (design.md §4.5) and the marks its result comes from: agreed
+   * marks, or the third marker's sheet once submitted; null to use the first examiner's sheet. A
+   * pair outside tolerance opens a case; an open case whose pair is now within tolerance (after a
+   * correction) closes again. A submitted third sheet resolves a case waiting for it.
+   */
+  private async moderate(
+    em: EntityManager,
+    cases: ScopedRepository<ModerationCase>,
+    slot: Slot,
+    submitted: MarkSheet[],
+    existing: ModerationCase | undefined,
+    facts: {
+      requests: Request[];
+      cellsOf: Map<string, Map<string, CellValue>>;
+      rubrics: Map<string, RubricFacts>;
+      totalMarks: number;
+      policy: BandPolicy;
+    },
+  ): Promise<MarksSource | null> {
+    const first = submitted.find((s) => s.role === 'first');
+    const second = submitted.find((s) => s.role === 'second');
+    const third = submitted.find((s) => s.role === 'third');
+    let c = existing ?? null;
+    if (slot.secondExaminerMembershipId && first && second && (!c || c.status === 'open')) {
+      const sheetOf = (s: MarkSheet) =>
+        scoreCells(
+          facts.requests,
+          facts.cellsOf.get(s.id) ?? new Map(),
+          facts.rubrics,
+          facts.totalMarks,
+          facts.policy,
+        );
+      let comparison = null;
+      try {
+        comparison = compareSheets(sheetOf(first), sheetOf(second));
+      } catch (e) {
+        if (!(e instanceof MarkSheetError)) throw e;
+      }
+      if (comparison?.flagged) {
+        c ??= cases.create({
+          sittingId: slot.sittingId,
+          slotId: slot.id,
+          status: 'open',
+          agreedMarks: null,
+          agreedByPersonId: null,
+          agreedAt: null,
+          agreedReason: null,
+          thirdExaminerMembershipId: null,
+          sentToThirdByPersonId: null,
+          sentToThirdAt: null,
+          resolvedAt: null,
+        });
+        c.comparison = comparison;
+        c = await cases.save(c);
+      } else if (comparison && c) {
+        await em.delete(ModerationCase, { id: c.id, organisationId: c.organisationId });
+        c = null;
+      }
+    }
+    if (!c) return null;
+    if (c.status === 'third_marking' && third) {
+      c.status = 'third';
+      c.resolvedAt = now();
+      await cases.save(c);
+    }
+    if (c.status === 'agreed' && c.agreedMarks) {
+      const cells = new Map<string, CellValue>(Object.entries(c.agreedMarks.marks));
+      for (const i of c.agreedMarks.notAsked) cells.set(`asked:${i}`, false);
+      // Flags and comments stay the first examiner's: agreement is about marks.
+      for (const [k, v] of facts.cellsOf.get(first?.id ?? '') ?? [])
+        if (!k.startsWith('mark:') && !k.startsWith('asked:')) cells.set(k, v);
+      return { basis: 'agreed', cells };
+    }
+    if (c.status === 'third' && third)
+      return { basis: 'third', cells: facts.cellsOf.get(third.id) ?? new Map() };
+    return null;
+  }
+
+  /** Criteria of the given rubric versions (pinned and immutable once published). */
+  async loadRubrics(em: EntityManager, ids: string[]): Promise<Map<string, RubricFacts>> {
     const unique = [...new Set(ids)];
     if (!unique.length) return new Map();
     // Rubric versions are pinned and immutable once published; read by id (already scoped via the draw).
@@ -288,6 +360,24 @@ export function sheetInput(
   });
 }
 
+/** The shared scorer's full answer for one set of marks (design.md §4.1). Throws MarkSheetError. */
+export function scoreCells(
+  requests: readonly Request[],
+  cells: SheetCells,
+  rubrics: ReadonlyMap<string, RubricFacts>,
+  totalMarks: number,
+  policy: BandPolicy,
+): Extract<SheetScore, { status: 'scored' }> {
+  const s = scoreMarkSheet({
+    outcome: 'completed',
+    totalMarks,
+    requests: sheetInput(requests, cells, rubrics),
+    policy,
+  });
+  if (s.status !== 'scored') throw new Error('A completed slot always scores.');
+  return s;
+}
+
 /** Scores one set of marks with the shared functions (design.md §4.1). Throws MarkSheetError. */
 export function score(
   requests: readonly Request[],
@@ -297,8 +387,7 @@ export function score(
   policy: BandPolicy,
 ): Omit<ResultFigures, 'basis'> {
   const input = sheetInput(requests, cells, rubrics);
-  const s = scoreMarkSheet({ outcome: 'completed', totalMarks, requests: input, policy });
-  if (s.status !== 'scored') throw new Error('A completed slot always scores.');
+  const s = scoreCells(requests, cells, rubrics, totalMarks, policy);
   const scoreOf = new Map(s.requests.map((r) => [r.key, r.score]));
   let slips = 0;
   let notes = 0;

@@ -60,6 +60,7 @@ import {
 import { invitationsFor, sittingCalendar, type InviteSnapshot, type Recipient } from './sitting-invitations.js';
 import { SittingMailer } from './sitting-mailer.js';
 import { ResultsService } from '../results/results.service.js';
+import { ReleaseService } from '../results/release.service.js';
 import { toSittingSummary, toSittingView, type PaperFacts } from './sittings.mapper.js';
 import { clockOf, instantToLocal, localToInstant, NonexistentLocalTime, zoneOffsetMinutes } from './zoned-time.js';
 
@@ -140,6 +141,7 @@ export class SittingsService {
     private readonly classService: ClassesService,
     private readonly mailer: SittingMailer,
     private readonly results: ResultsService,
+    private readonly release: ReleaseService,
   ) {
     this.sittings = new ScopedRepository(sittingRepo, 'sitting');
     this.papers = new ScopedRepository(paperRepo, 'requirement list of this sitting');
@@ -599,6 +601,9 @@ export class SittingsService {
         // Results are derived as marking closes, in the same transaction (issue 7 §1).
         await this.results.computeForSitting(s.id, em);
       } else {
+        // Published means released: refused while a moderation flag is open or a result unreleased.
+        const blocked = await this.release.publishBlocker(em, s.id);
+        if (blocked) throw conflict(blocked);
         s.status = 'published';
         await this.sittings.withManager(em).save(s);
       }

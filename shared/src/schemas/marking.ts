@@ -227,7 +227,7 @@ export interface DeskView {
     listName: string;
     extraTimePercent: number;
   };
-  role: 'first' | 'second';
+  role: 'first' | 'second' | 'third';
   noteNames: NoteNameConvention;
   draw: { seed: string; algorithm: string; drawnAt: string; repeatsOfPrevious: number } | null;
   requests: DeskRequest[];
@@ -243,7 +243,8 @@ export interface MarkingSlotSummary {
   endTime: string;
   candidate: string;
   listName: string;
-  role: 'first' | 'second';
+  /** third: a flagged pair handed to the caller by moderation (design.md §4.5). */
+  role: 'first' | 'second' | 'third';
   outcome: SlotOutcome | null;
   sheetStatus: MarkSheetStatus | null;
 }

@@ -23,6 +23,7 @@ export const navItems: readonly NavItem[] = [
   { to: paths.sittings.href(), label: 'Sittings', roles: paths.sittings.roles },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },
   { to: paths.marking.href(), label: 'Marking', roles: paths.marking.roles },
+  { to: paths.myResults.href(), label: 'My results', roles: paths.myResults.roles },
   { to: paths.agreement.href(), label: 'Agreement', roles: paths.agreement.roles },
   { to: paths.standardisation.href(), label: 'Standardisation', roles: paths.standardisation.roles },
   { to: paths.recordingSettings.href(), label: 'Recordings', roles: paths.recordingSettings.roles },

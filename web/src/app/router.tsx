@@ -197,6 +197,25 @@ export const routes: RouteObject[] = [
           element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
         }),
       })),
+      // Moderation and release (issue 7): each page its own chunk, guarded by the roles in paths.
+      ...(
+        [
+          [
+            paths.moderation,
+            () => import('@/features/moderation/pages/ModerationPage').then((m) => <m.ModerationPage />),
+          ],
+          [
+            paths.release,
+            () => import('@/features/release/pages/ReleasePage').then((m) => <m.ReleasePage />),
+          ],
+          [
+            paths.myResults,
+            () => import('@/features/release/pages/MyResultsPage').then((m) => <m.MyResultsPage />),
+          ],
+          [
+            paths.result,
+            () => import('@/features/release/pages/ResultPage').then((m) => <m.ResultPage />),
+          ],
       // Agreement and standardisation (issue 7): the chart library loads with these pages only.
       ...(
         [

@@ -78,6 +78,23 @@ export const paths = {
     href: (date?: string) => `/schedule${date ? `?date=${encodeURIComponent(date)}` : ''}`,
     roles: ['admin', 'teacher', 'examiner'],
   },
+  // Moderation and release (issue 7): teachers and admins; a student reads their own results.
+  moderation: {
+    path: '/sittings/:sittingId/moderation',
+    href: (sittingId: string) => `/sittings/${encodeURIComponent(sittingId)}/moderation`,
+    roles: ['admin', 'teacher'],
+  },
+  release: {
+    path: '/sittings/:sittingId/release',
+    href: (sittingId: string) => `/sittings/${encodeURIComponent(sittingId)}/release`,
+    roles: ['admin', 'teacher'],
+  },
+  myResults: { path: '/results', href: () => '/results', roles: ['student'] },
+  result: {
+    path: '/results/:resultId',
+    href: (resultId: string) => `/results/${encodeURIComponent(resultId)}`,
+    roles: ['admin', 'teacher', 'student'],
+  },
   // Agreement between examiners and standardisation (issue 7): staff and examiners.
   agreement: {
     path: '/agreement',

@@ -12,7 +12,7 @@ import {
 import { Organisation } from '../../organisations/entities/organisation.entity.js';
 import { AccountToken } from '../../invitations/entities/account-token.entity.js';
 
-export const MAIL_KINDS = ['invitation', 'guardian_notice', 'password_reset'] as const;
+export const MAIL_KINDS = ['invitation', 'guardian_notice', 'password_reset', 'results_report', 'third_marking'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 export const MAIL_STATUSES = [
   'queued',
@@ -31,7 +31,7 @@ export type MailStatus = (typeof MAIL_STATUSES)[number];
  * stored here.
  */
 @Entity('outbound_mail')
-@Check('outbound_mail_kind', `kind IN ('invitation', 'guardian_notice', 'password_reset')`)
+@Check('outbound_mail_kind', `kind IN ('invitation', 'guardian_notice', 'password_reset', 'results_report', 'third_marking')`)
 @Check(
   'outbound_mail_status',
   `status IN ('queued', 'sending', 'sent', 'retrying', 'failed', 'cancelled')`,

@@ -93,6 +93,7 @@ function DeskHeader({ desk, children }: { desk: DeskView; children?: React.React
           {s.listName}
           {s.extraTimePercent > 0 && ` · extra time ${s.extraTimePercent} %`}
           {desk.role === 'second' && ' · second marker (blind)'}
+          {desk.role === 'third' && ' · third marker (blind): the pair’s marks stay hidden'}
         </p>
       </div>
       {children}

@@ -51,7 +51,7 @@ export function MarkingPage() {
                         <Link to={paths.markingDesk.href(x.id)}>{x.candidate}</Link>
                       </td>
                       <td>{x.listName}</td>
-                      <td>{x.role === 'first' ? 'First' : 'Second (blind)'}</td>
+                      <td>{x.role === 'first' ? 'First' : x.role === 'second' ? 'Second (blind)' : 'Third (blind, moderation)'}</td>
                       <td>
                         {x.sheetStatus
                           ? SHEET[x.sheetStatus]

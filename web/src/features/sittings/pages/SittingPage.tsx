@@ -248,6 +248,13 @@ export function SittingPage() {
               onClick={() => navigate(paths.daySchedule.href(s.date))}
             />
           )}
+          {(s.status === 'marking_closed' || s.status === 'published') &&
+            (roles.includes('admin') || roles.includes('teacher')) && (
+              <>
+                <Button type="button" label="Moderation" icon="pi pi-clone" severity="secondary" onClick={() => navigate(paths.moderation.href(s.id))} />
+                <Button type="button" label="Release results" icon="pi pi-megaphone" severity="secondary" onClick={() => navigate(paths.release.href(s.id))} />
+              </>
+            )}
           {s.permissions.changeStatus.map((next) => (
             <Button
               key={next}
