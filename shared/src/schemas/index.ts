@@ -9,3 +9,4 @@ export * from './classes.js';
 export * from './invitations.js';
 export * from './sittings.js';
 export * from './marking.js';
+export * from './reports.js';
