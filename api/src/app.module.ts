@@ -20,6 +20,7 @@ import { StudentsModule } from './students/students.module.js';
 import { OutboxModule } from './outbox/outbox.module.js';
 import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
+import { ReportsModule } from './reports/reports.module.js';
 
 @Module({
   imports: [
@@ -48,6 +49,7 @@ import { MarkingModule } from './marking/marking.module.js';
     OutboxModule.forEnvironment(),
     SittingsModule,
     MarkingModule,
+    ReportsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

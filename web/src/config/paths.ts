@@ -71,6 +71,18 @@ export const paths = {
     href: (date?: string) => `/schedule${date ? `?date=${encodeURIComponent(date)}` : ''}`,
     roles: ['admin', 'teacher', 'examiner'],
   },
+  // Results (issue 8): classes compared, a sitting's and a class's results, exports and PDFs.
+  results: { path: '/results', href: () => '/results', roles: ['admin', 'teacher'] },
+  sittingResults: {
+    path: '/sittings/:sittingId/results',
+    href: (sittingId: string) => `/sittings/${encodeURIComponent(sittingId)}/results`,
+    roles: ['admin', 'teacher', 'examiner'],
+  },
+  classResults: {
+    path: '/classes/:classId/results',
+    href: (classId: string) => `/classes/${encodeURIComponent(classId)}/results`,
+    roles: ['admin', 'teacher'],
+  },
 } as const satisfies Record<
   string,
   { path: string; href: (...args: never[]) => string; roles: readonly Role[] }

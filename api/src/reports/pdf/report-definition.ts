@@ -71,6 +71,9 @@ export const reportDefinitionSchema = z.strictObject({
   fileName: z.string().min(1).max(200),
   footer: text.optional(),
   sections: z.array(section).min(1),
+  /** Plain-word lines per criterion key (take-home report): what went well, what to do next. */
+  phrases: z.record(z.string(), z.strictObject({ strength: text, nextStep: text })).optional(),
+  phraseDefaults: z.strictObject({ strength: text, nextStep: text }).optional(),
 });
 export type ReportDefinition = z.infer<typeof reportDefinitionSchema>;
 export type ReportSection = Section;
