@@ -20,6 +20,8 @@ import { StudentsModule } from './students/students.module.js';
 import { OutboxModule } from './outbox/outbox.module.js';
 import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
+import { StorageModule } from './storage/storage.module.js';
+import { ResultsModule } from './results/results.module.js';
 import { ReportsModule } from './reports/reports.module.js';
 
 @Module({
@@ -49,6 +51,8 @@ import { ReportsModule } from './reports/reports.module.js';
     OutboxModule.forEnvironment(),
     SittingsModule,
     MarkingModule,
+    StorageModule,
+    ResultsModule,
     ReportsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],

@@ -446,6 +446,8 @@ const SITTING_ROWS: Row[] = [
 let seq = 0;
 const ROWS: Row[] = [
   { method: 'get', route: '/api/health', path: () => '/api/health', expect: all(200) },
+  // Public: the signed URL is the permission; a link that was not signed by us is refused for everyone.
+  { method: 'get', route: '/api/media/{token}', path: () => '/api/media/bm90LXNpZ25lZA.bm90LXNpZ25lZA', expect: all(403) },
   { method: 'get', route: '/api/auth/me', path: () => '/api/auth/me', expect: members(200) },
   { method: 'patch', route: '/api/auth/me', path: () => '/api/auth/me', body: () => ({ noteNames: 'british' }), expect: members(200) },
   {

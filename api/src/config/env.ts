@@ -41,6 +41,14 @@ export const envSchema = z
     LINK_LIMIT_PER_EMAIL: z.coerce.number().int().min(1).default(3),
     LINK_LIMIT_PER_CLIENT: z.coerce.number().int().min(1).default(30),
     LINK_LIMIT_WINDOW_SECONDS: z.coerce.number().int().min(1).default(900),
+    // Stored files (recordings): the local-disk driver's folder, default <checkout>/.local/storage.
+    STORAGE_DIR: z.string().min(1).optional(),
+    // Signed media URLs: short-lived because a media element cannot send a bearer token.
+    MEDIA_URL_TTL_SECONDS: z.coerce.number().int().min(10).max(3600).default(300),
+    RECORDING_MAX_MB: z.coerce.number().min(1).max(2048).default(200),
+    // The retention job (pg-boss cron, UTC): hourly by default; false leaves it to another instance.
+    RECORDING_RETENTION_CRON: z.string().default('17 * * * *'),
+    RECORDING_RETENTION_WORKER_ENABLED: bool.default(true),
   })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV !== 'production') return;

@@ -27,6 +27,7 @@ import { SlotDraw } from '../marking/entities/slot-draw.entity.js';
 import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
 import { MarkCell } from '../marking/entities/mark-cell.entity.js';
 import { MarkChange } from '../marking/entities/mark-change.entity.js';
+import { Result } from '../results/entities/result.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -59,4 +60,5 @@ export const entities = [
   MarkSheet,
   MarkCell,
   MarkChange,
+  Result,
 ];

@@ -3,6 +3,7 @@ import { RubricsListsFingerings1796163564233 } from './1796163564233-RubricsList
 import { MailAndAccountLinks1796163605141 } from './1796163605141-MailAndAccountLinks.js';
 import { Sittings1796164957096 } from './1796164957096-Sittings.js';
 import { MarkingDesk1796165637720 } from './1796165637720-MarkingDesk.js';
+import { Results1796173495994 } from './1796173495994-Results.js';
 
 /** Listed by class, not by glob, so tests and dist/ share one list (toolchain.md). Append only. */
-export const migrations = [Foundation1764633600000, RubricsListsFingerings1796163564233, MailAndAccountLinks1796163605141, Sittings1796164957096, MarkingDesk1796165637720];
+export const migrations = [Foundation1764633600000, RubricsListsFingerings1796163564233, MailAndAccountLinks1796163605141, Sittings1796164957096, MarkingDesk1796165637720, Results1796173495994];

@@ -7,6 +7,7 @@ import { RequirementListVersion } from '../requirement-lists/entities/requiremen
 import { RequirementListsModule } from '../requirement-lists/requirement-lists.module.js';
 import { Student } from '../students/entities/student.entity.js';
 import { Membership } from '../users/entities/membership.entity.js';
+import { ResultsModule } from '../results/results.module.js';
 import { AccessArrangementsService } from './access-arrangements.service.js';
 import { BandPolicyService } from './band-policy.service.js';
 import { AccessArrangement } from './entities/access-arrangement.entity.js';
@@ -25,6 +26,7 @@ import { SittingsService } from './sittings.service.js';
     TypeOrmModule.forFeature([Sitting, SittingPaper, SittingExaminer, Slot, AccessArrangement, BandPolicyVersion, SittingMail, RequirementListVersion, Student, ClassGroup, Membership, Organisation]),
     RequirementListsModule,
     ClassesModule,
+    ResultsModule,
   ],
   controllers: [SittingsController, SlotsController, ScheduleController],
   providers: [SittingsService, AccessArrangementsService, BandPolicyService, { provide: SittingMailer, useClass: QueuedSittingMailer }],

@@ -59,6 +59,7 @@ import {
 } from './sitting-access.js';
 import { invitationsFor, sittingCalendar, type InviteSnapshot, type Recipient } from './sitting-invitations.js';
 import { SittingMailer } from './sitting-mailer.js';
+import { ResultsService } from '../results/results.service.js';
 import { toSittingSummary, toSittingView, type PaperFacts } from './sittings.mapper.js';
 import { clockOf, instantToLocal, localToInstant, NonexistentLocalTime, zoneOffsetMinutes } from './zoned-time.js';
 
@@ -138,6 +139,7 @@ export class SittingsService {
     private readonly lists: RequirementListsService,
     private readonly classService: ClassesService,
     private readonly mailer: SittingMailer,
+    private readonly results: ResultsService,
   ) {
     this.sittings = new ScopedRepository(sittingRepo, 'sitting');
     this.papers = new ScopedRepository(paperRepo, 'requirement list of this sitting');
@@ -594,6 +596,8 @@ export class SittingsService {
         if (open.length) throw conflict(`${open.length} slot(s) have no outcome yet (first: ${nameOf(open[0]!.student!)}). Record completed, absent, withdrawn or incomplete for each before closing marking.`);
         s.status = 'marking_closed';
         await this.sittings.withManager(em).save(s);
+        // Results are derived as marking closes, in the same transaction (issue 7 §1).
+        await this.results.computeForSitting(s.id, em);
       } else {
         s.status = 'published';
         await this.sittings.withManager(em).save(s);
@@ -627,6 +631,8 @@ export class SittingsService {
       slot.outcomeRecordedByPersonId = access.caller.personId;
       await this.slots.withManager(em).save(slot);
       await this.audit.record({ action: 'slot.outcome_recorded', entity: 'slot', entityId: slot.id, before, after: { outcome: slot.outcome, note: slot.outcomeNote } }, em);
+      // After marking closed, results follow the outcome (a withdrawn slot loses its result).
+      if (s.status === 'marking_closed') await this.results.computeForSitting(s.id, em);
       return s.id;
     });
     return this.reload(sittingId);

@@ -9,4 +9,5 @@ export * from './classes.js';
 export * from './invitations.js';
 export * from './sittings.js';
 export * from './marking.js';
+export * from './results.js';
 export * from './reports.js';

@@ -189,7 +189,8 @@ export interface MarkSheetView {
   id: string;
   slotId: string;
   examiner: { id: string; displayName: string };
-  role: 'first' | 'second';
+  /** third: a moderator's sheet for a pair outside tolerance. */
+  role: 'first' | 'second' | 'third';
   status: MarkSheetStatus;
   startedAt: string;
   submittedAt: string | null;

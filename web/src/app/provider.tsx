@@ -31,7 +31,8 @@ export function AppProvider({
   return (
     <PrimeReactProvider value={{ ripple: false }}>
       <QueryClientProvider client={client}>
-        <Toast ref={toast} position="top-right" />
+        {/* Bottom right: at the top it covered the page header's buttons. */}
+        <Toast ref={toast} position="bottom-right" />
         {children}
       </QueryClientProvider>
     </PrimeReactProvider>

@@ -18,7 +18,7 @@ import { Membership } from '../../users/entities/membership.entity.js';
 /** One examiner's marking of one slot (design.md §3): its cells live in mark_cells. */
 @Entity('mark_sheets')
 @Check('mark_sheets_status', `status IN ('draft', 'submitted')`)
-@Check('mark_sheets_role', `role IN ('first', 'second')`)
+@Check('mark_sheets_role', `role IN ('first', 'second', 'third')`)
 @Check('mark_sheets_submitted', `(status = 'submitted') = (submitted_at IS NOT NULL)`)
 @Index(['slotId', 'examinerMembershipId'], { unique: true })
 export class MarkSheet implements OrgOwned {
@@ -47,8 +47,9 @@ export class MarkSheet implements OrgOwned {
   @JoinColumn({ name: 'examiner_membership_id' })
   examiner?: Relation<Membership>;
 
+  /** third: a moderator's blind sheet for a pair outside tolerance (design.md §4.5). */
   @Column({ type: 'text' })
-  role: 'first' | 'second';
+  role: 'first' | 'second' | 'third';
 
   @Column({ type: 'text', default: 'draft' })
   status: MarkSheetStatus;
