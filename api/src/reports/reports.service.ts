@@ -93,21 +93,28 @@ function toRow(r: ResultDbRow): ResultRow {
 }
 
 /**
+ * Which submitted sheet holds the marks behind a result: the third marker's when the result is
+ * theirs, else the first examiner's (also for 'agreed', until moderation stores agreed marks as a
+ * sheet of their own; the Basis column says which total the row belongs to).
+ */
+const SHEET_ROLE = `(CASE WHEN r.basis = 'third' THEN 'third' ELSE 'first' END)`;
+
+/**
  * The marks of a result, one row per request × criterion, from the submitted sheet the result
- * was computed from: the first examiner's sheet. (Agreed and third marks live with moderation.)
+ * was computed from (SHEET_ROLE).
  * Rows come in order of the sitting date, sitting, student, request and the rubric's criteria.
  */
 function yearRowsSql(where: string): string {
   return `
   SELECT st.pupil_number, st.given_name, st.family_name, st.grade, s.date::text, s.title, lv.name,
          x.request_no, x.request_label, x.criterion_key, x.criterion_label, x.mark, x.max_mark,
-         r.total, r.out_of, r.band_label
+         r.total, r.out_of, r.band_label, r.basis
     FROM results r
     JOIN sittings s ON s.id = r.sitting_id
     JOIN students st ON st.id = r.student_id
     JOIN requirement_list_versions lv ON lv.id = r.list_version_id
     JOIN slot_draws d ON d.slot_id = r.slot_id
-    JOIN mark_sheets ms ON ms.slot_id = r.slot_id AND ms.role = 'first' AND ms.status = 'submitted'
+    JOIN mark_sheets ms ON ms.slot_id = r.slot_id AND ms.role = ${SHEET_ROLE} AND ms.status = 'submitted'
    CROSS JOIN LATERAL (
      SELECT q.idx + 1 AS request_no, COALESCE(pr.label, '') AS request_label, rc.key AS criterion_key,
             rc.label AS criterion_label, (c.value #>> '{}')::int AS mark, rc.max_mark
@@ -371,7 +378,7 @@ export class ReportsService {
     const params = [this.org(), period.from, period.to, classId];
     const [{ n }] = await this.db.query(
       `SELECT count(*)::int AS n FROM results r JOIN sittings s ON s.id = r.sitting_id
-         JOIN mark_sheets ms ON ms.slot_id = r.slot_id AND ms.role = 'first' AND ms.status = 'submitted'
+         JOIN mark_sheets ms ON ms.slot_id = r.slot_id AND ms.role = ${SHEET_ROLE} AND ms.status = 'submitted'
          JOIN mark_cells c ON c.sheet_id = ms.id AND c.cell LIKE 'mark:%' AND jsonb_typeof(c.value) = 'number'
         WHERE ${where}`,
       params,
@@ -420,8 +427,8 @@ export class ReportsService {
   private async sheetDetail(r: ResultDbRow) {
     const cells: { cell: string; value: unknown }[] = await this.db.query(
       `SELECT c.cell, c.value FROM mark_sheets ms JOIN mark_cells c ON c.sheet_id = ms.id
-        WHERE ms.organisation_id = $1 AND ms.slot_id = $2 AND ms.role = 'first'`,
-      [this.org(), r.slot_id],
+        WHERE ms.organisation_id = $1 AND ms.slot_id = $2 AND ms.role = $3 AND ms.status = 'submitted'`,
+      [this.org(), r.slot_id, r.basis === 'third' ? 'third' : 'first'],
     );
     const [draw]: { requests: { index: number; rubricVersionId: string }[] }[] = await this.db.query(
       `SELECT requests FROM slot_draws WHERE organisation_id = $1 AND slot_id = $2`,

@@ -132,6 +132,7 @@ export const YEAR_EXPORT_COLUMNS = [
   'Result total',
   'Result out of',
   'Band',
+  'Basis',
 ] as const;
 
 /** Columns of a sitting's results export, before one column per criterion. */
