@@ -22,6 +22,8 @@ import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
 import { StorageModule } from './storage/storage.module.js';
 import { ResultsModule } from './results/results.module.js';
+import { AgreementModule } from './agreement/agreement.module.js';
+import { StandardisationModule } from './standardisation/standardisation.module.js';
 import { ReportsModule } from './reports/reports.module.js';
 
 @Module({
@@ -53,6 +55,8 @@ import { ReportsModule } from './reports/reports.module.js';
     MarkingModule,
     StorageModule,
     ResultsModule,
+    AgreementModule,
+    StandardisationModule,
     ReportsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],

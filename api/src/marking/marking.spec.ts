@@ -96,7 +96,7 @@ describe('the marking desk', () => {
     expect(again.draw?.seed).toBe(desk.draw?.seed);
     expect(again.sheet?.id).toBe(desk.sheet?.id);
 
-    // Replay: the same list, rule and seed give the same requests (no earlier draw for this pupil).
+    // Replay: the same list, rule, seed and previous draw give the same requests.
     const [row] = (await t.db.query(
       `SELECT lv.selection_rule AS rule, lv.id AS lv FROM slots s JOIN sitting_papers p ON p.id = s.paper_id JOIN requirement_list_versions lv ON lv.id = p.list_version_id WHERE s.id = $1`,
       [slot.id],
@@ -121,11 +121,16 @@ describe('the marking desk', () => {
       relations: { rubricVersion: true },
       order: { position: 'ASC' },
     });
+    // The pupil's previous draw (the demo year's latest) is avoided, as the desk does.
+    const [prev] = (await t.db.query(
+      `SELECT d.requests FROM slot_draws d JOIN slots s ON s.id = $1 WHERE d.student_id = s.student_id AND d.slot_id <> s.id ORDER BY d.drawn_at DESC LIMIT 1`,
+      [slot.id],
+    )) as { requests: NonNullable<Parameters<typeof drawRequests>[3]>['previous'] }[];
     const replay = drawRequests(
       { lines: lineRows.map(toLineView) as RequirementLine[] },
       row!.rule,
       desk.draw!.seed,
-      { previous: [], substitutions: [] },
+      { previous: prev?.requests ?? [], substitutions: [] },
     );
     expect(replay.requests).toEqual(requests);
 

@@ -212,7 +212,7 @@ describe('results pages, CSV exports and PDFs (issue 8 §3–5)', () => {
   it('a student reads their own take-home report only once it is released', async () => {
     // Make this candidate the demo student's own record for the check (one student record per sign-in).
     const [r] = (await t.db.query(`SELECT r.id FROM results r JOIN students s ON s.id = r.student_id WHERE r.sitting_id = $1 AND s.pupil_number = 'KL1017'`, [sittingId])) as { id: string }[];
-    const [{ m }] = (await t.db.query(`SELECT membership_id AS m FROM students WHERE pupil_number = 'KL1021'`)) as { m: string }[];
+    const [{ m }] = (await t.db.query(`SELECT membership_id AS m FROM students WHERE pupil_number = 'KL1021'`)) as [{ m: string }];
     await t.db.query(`UPDATE students SET membership_id = NULL WHERE pupil_number = 'KL1021'`);
     await t.db.query(`UPDATE students SET membership_id = $1 WHERE pupil_number = 'KL1017'`, [m]);
     const st = await signIn(t, 'student@demo.example');

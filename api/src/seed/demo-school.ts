@@ -4,6 +4,8 @@ import type { Role } from '@stavemark/shared';
 import { hashPassword } from '../auth/passwords.js';
 import { seedStarterLibrary } from '../rubrics/starter-library.js';
 import { seedDemoSittings } from '../sittings/demo-sittings.js';
+import { seedDemoYear } from './demo-year.js';
+import { seedDemoStandardisation } from './demo-standardisation.js';
 
 export const DEMO_PASSWORD = 'stavemark-demo';
 
@@ -147,5 +149,7 @@ export async function seedDemo(em: EntityManager, data: DemoSchool, today: strin
   for (const other of data.otherOrganisations) await seedOrganisation(em, other, today, hash);
   await seedStarterLibrary(em, organisationId);
   await seedDemoSittings(em, organisationId, today);
+  await seedDemoYear(em, organisationId, today);
+  await seedDemoStandardisation(em, organisationId, today);
   return { organisationId };
 }

@@ -34,7 +34,7 @@ describe('GET /api/today', () => {
 
   it('gives an admin the organisation’s figures', async () => {
     const v = await today('admin@demo.example');
-    expect(v.admin).toMatchObject({ students: 40, classes: 4 });
+    expect(v.admin).toMatchObject({ students: 46, classes: 4 });
     expect(v.admin.term.name).toBe('Autumn 2026');
   });
 

@@ -24,6 +24,8 @@ export const navItems: readonly NavItem[] = [
   { to: paths.results.href(), label: 'Results', roles: paths.results.roles },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },
   { to: paths.marking.href(), label: 'Marking', roles: paths.marking.roles },
+  { to: paths.agreement.href(), label: 'Agreement', roles: paths.agreement.roles },
+  { to: paths.standardisation.href(), label: 'Standardisation', roles: paths.standardisation.roles },
 ];
 
 export function navItemsFor(roles: readonly Role[]): NavItem[] {
