@@ -6,7 +6,7 @@ import { LOCALE } from '@/lib/format';
 
 ChartJS.register(CategoryScale, LinearScale, BarElement, Tooltip);
 
-const pct = (x: number) => `${new Intl.NumberFormat(LOCALE, { maximumFractionDigits: 0 }).format(x)} %`;
+const pct = (x: number) => `${new Intl.NumberFormat(LOCALE, { maximumFractionDigits: 0 }).format(x)}\u00a0%`;
 
 /** Prints each bar's count above it, so the chart reads without colour or hovering. */
 const countLabels: Plugin<'bar'> = {

@@ -26,7 +26,7 @@ interface FlatRow {
 }
 
 const BASIS: Record<string, string> = { single: 'One examiner', first: 'First marker', agreed: 'Agreed', third: 'Third marker' };
-const pct = (x: number) => `${new Intl.NumberFormat(LOCALE, { minimumFractionDigits: 1, maximumFractionDigits: 1 }).format(x)} %`;
+const pct = (x: number) => `${new Intl.NumberFormat(LOCALE, { minimumFractionDigits: 1, maximumFractionDigits: 1 }).format(x)}\u00a0%`;
 
 /**
  * Results as a table: sort by any column, search names and pupil numbers, filter by band, page
@@ -115,7 +115,7 @@ export function ResultsTable({
       <Column field="name" header="Student" sortable body={(r: FlatRow) => (<><span>{r.name}</span> <span className="sm-muted">{r.pupilNumber}</span></>)} />
       {showSitting && <Column field="sittingDate" header="Date" sortable body={(r: FlatRow) => formatPlainDate(r.sittingDate, 'short')} />}
       {showSitting && <Column field="sitting" header="Sitting" sortable />}
-      <Column field="listName" header="List" sortable />
+      {!showSitting && <Column field="listName" header="List" sortable />}
       <Column field="total" header="Total" sortable className="sm-num" body={(r: FlatRow) => `${r.total} / ${r.outOf}`} />
       <Column field="percentage" header="%" sortable className="sm-num" body={(r: FlatRow) => pct(r.percentage)} />
       <Column field="bandLabel" header="Band" sortable body={(r: FlatRow) => <span className={`sm-band sm-band-${r.bandKey}`}>{r.bandLabel}</span>} />

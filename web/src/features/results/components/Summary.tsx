@@ -2,7 +2,7 @@ import type { CriterionMean, ResultsSummary } from '@stavemark/shared';
 import { LOCALE } from '@/lib/format';
 
 export const pct = (x: number | null) =>
-  x === null ? '—' : `${new Intl.NumberFormat(LOCALE, { minimumFractionDigits: 1, maximumFractionDigits: 1 }).format(x)} %`;
+  x === null ? '—' : `${new Intl.NumberFormat(LOCALE, { minimumFractionDigits: 1, maximumFractionDigits: 1 }).format(x)}\u00a0%`;
 
 /** The headline figures of a set of results. */
 export function Figures({ summary, extra = [] }: { summary: ResultsSummary; extra?: [string, string][] }) {
