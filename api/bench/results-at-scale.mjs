@@ -50,6 +50,7 @@ const pctl = (xs, p) => {
 const mb = (n) => `${(n / 1024 / 1024).toFixed(0)} MB`;
 const f1 = (x) => x.toFixed(1);
 
+// Ids are md5 of a name with the RFC 9562 version (4) and variant bits set, so they pass the API's UUID checks.
 // ---- the generated school ----------------------------------------------------------------------
 /**
  * Bulk loading as PostgreSQL's manual advises ("Populating a Database"): the marks table's indexes
@@ -109,48 +110,48 @@ async function generate(c) {
   const labels = requests.map((r) => `${r.key} major scale, hands together`);
 
   await q('students', `INSERT INTO students (id, organisation_id, pupil_number, given_name, family_name, date_of_birth, grade)
-    SELECT md5('bx-student-' || n)::uuid, $1, 'BX' || lpad(n::text, 5, '0'),
+    SELECT overlay(overlay(md5('bx-student-' || n) placing '4' from 13) placing '8' from 17)::uuid, $1, 'BX' || lpad(n::text, 5, '0'),
       (ARRAY['Ada','Bram','Cleo','Dev','Esme','Felix','Greta','Hugo','Iris','Jonah','Kaia','Leon','Mira','Nico','Orla','Zoë'])[1 + n % 16],
       (ARRAY['Pendry','Everleigh','Castellan','Ingleby','Hatherley','Underhay','Tallis','Ormerod','O''Neill','Sedley'])[1 + (n / 16) % 10],
       date '2010-01-01' + (n % 3000), 5
     FROM generate_series(0, ${STUDENTS - 1}) n`, P);
   await q('classes', `INSERT INTO classes (id, organisation_id, name, code, grade)
-    SELECT md5('bx-class-' || c)::uuid, $1, 'Bench class ' || c, 'BX-C' || lpad(c::text, 3, '0'), 5 FROM generate_series(0, ${CLASSES - 1}) c`, P);
+    SELECT overlay(overlay(md5('bx-class-' || c) placing '4' from 13) placing '8' from 17)::uuid, $1, 'Bench class ' || c, 'BX-C' || lpad(c::text, 3, '0'), 5 FROM generate_series(0, ${CLASSES - 1}) c`, P);
   await q('class members', `INSERT INTO class_members (class_id, student_id)
-    SELECT md5('bx-class-' || (n / ${CLASS_SIZE}))::uuid, md5('bx-student-' || n)::uuid FROM generate_series(0, ${STUDENTS - 1}) n`);
-  await q('class teachers', `INSERT INTO class_teachers (class_id, membership_id) SELECT md5('bx-class-' || c)::uuid, $1 FROM generate_series(0, ${CLASSES - 1}) c`, [ctx.teacher]);
+    SELECT overlay(overlay(md5('bx-class-' || (n / ${CLASS_SIZE})) placing '4' from 13) placing '8' from 17)::uuid, overlay(overlay(md5('bx-student-' || n) placing '4' from 13) placing '8' from 17)::uuid FROM generate_series(0, ${STUDENTS - 1}) n`);
+  await q('class teachers', `INSERT INTO class_teachers (class_id, membership_id) SELECT overlay(overlay(md5('bx-class-' || c) placing '4' from 13) placing '8' from 17)::uuid, $1 FROM generate_series(0, ${CLASSES - 1}) c`, [ctx.teacher]);
   // Sitting k = round × 500 + class; the rounds spread over the school year, the classes over each round's weeks.
   const sittingDate = `(date '2025-09-08' + (k / ${CLASSES}) * 33 + (k % ${CLASSES}) % 25)`;
   await q('sittings', `INSERT INTO sittings (id, organisation_id, title, date, room, time_zone, starts_at, ends_at, breaks, write_up_gap_minutes,
       changeover_minutes, status, planned_by_membership_id, scheduled_at, band_policy_id, pinned_rubric_version_ids)
-    SELECT md5('bx-sitting-' || k)::uuid, $1, 'Bench mock ' || (k / ${CLASSES} + 1) || ' — class ' || (k % ${CLASSES}), ${sittingDate},
+    SELECT overlay(overlay(md5('bx-sitting-' || k) placing '4' from 13) placing '8' from 17)::uuid, $1, 'Bench mock ' || (k / ${CLASSES} + 1) || ' — class ' || (k % ${CLASSES}), ${sittingDate},
       'Room ' || (k % 12), 'Europe/London', ${sittingDate} + time '08:00', ${sittingDate} + time '20:00', '[]', 2, 0, 'published', $2, now(), $3, ARRAY[$4::uuid]
     FROM generate_series(0, ${CLASSES * ROUNDS - 1}) k`, [ctx.org, ctx.teacher, ctx.policy, ctx.rubric]);
   await q('sitting papers', `INSERT INTO sitting_papers (id, organisation_id, sitting_id, list_version_id, position, suggested_minutes)
-    SELECT md5('bx-paper-' || k)::uuid, $1, md5('bx-sitting-' || k)::uuid, $2, 0, 14 FROM generate_series(0, ${CLASSES * ROUNDS - 1}) k`, [ctx.org, ctx.list]);
+    SELECT overlay(overlay(md5('bx-paper-' || k) placing '4' from 13) placing '8' from 17)::uuid, $1, overlay(overlay(md5('bx-sitting-' || k) placing '4' from 13) placing '8' from 17)::uuid, $2, 0, 14 FROM generate_series(0, ${CLASSES * ROUNDS - 1}) k`, [ctx.org, ctx.list]);
   await q('sitting examiners', `INSERT INTO sitting_examiners (organisation_id, sitting_id, membership_id, position)
-    SELECT $1, md5('bx-sitting-' || k)::uuid, $2, 0 FROM generate_series(0, ${CLASSES * ROUNDS - 1}) k`, [ctx.org, ctx.examiner]);
+    SELECT $1, overlay(overlay(md5('bx-sitting-' || k) placing '4' from 13) placing '8' from 17)::uuid, $2, 0 FROM generate_series(0, ${CLASSES * ROUNDS - 1}) k`, [ctx.org, ctx.examiner]);
   const slotKeys = `generate_series(0, ${CLASSES * ROUNDS - 1}) k, generate_series(0, ${CLASS_SIZE - 1}) p`;
-  const student = `md5('bx-student-' || ((k % ${CLASSES}) * ${CLASS_SIZE} + p))::uuid`;
+  const student = `overlay(overlay(md5('bx-student-' || ((k % ${CLASSES}) * ${CLASS_SIZE} + p)) placing '4' from 13) placing '8' from 17)::uuid`;
   await (
     q('slots', `INSERT INTO slots (id, organisation_id, sitting_id, paper_id, student_id, position, starts_at, ends_at, minutes, examiner_membership_id, outcome, outcome_recorded_at)
-      SELECT md5('bx-slot-' || k || '-' || p)::uuid, $1, md5('bx-sitting-' || k)::uuid, md5('bx-paper-' || k)::uuid, ${student}, p,
+      SELECT overlay(overlay(md5('bx-slot-' || k || '-' || p) placing '4' from 13) placing '8' from 17)::uuid, $1, overlay(overlay(md5('bx-sitting-' || k) placing '4' from 13) placing '8' from 17)::uuid, overlay(overlay(md5('bx-paper-' || k) placing '4' from 13) placing '8' from 17)::uuid, ${student}, p,
         ${sittingDate} + time '08:00' + p * interval '14 minutes', ${sittingDate} + time '08:14' + p * interval '14 minutes', 14, $2, 'completed', now()
       FROM ${slotKeys}`, [ctx.org, ctx.examiner]));
   await (
     q('slot draws', `INSERT INTO slot_draws (organisation_id, slot_id, student_id, seed, algorithm, drawn, requests)
-      SELECT $1, md5('bx-slot-' || k || '-' || p)::uuid, ${student}, 'bx-' || k || '-' || p, 'bench', $2::jsonb, $2::jsonb FROM ${slotKeys}`,
+      SELECT $1, overlay(overlay(md5('bx-slot-' || k || '-' || p) placing '4' from 13) placing '8' from 17)::uuid, ${student}, 'bx-' || k || '-' || p, 'bench', $2::jsonb, $2::jsonb FROM ${slotKeys}`,
       [ctx.org, JSON.stringify(requests)]));
   await (
     q('mark sheets', `INSERT INTO mark_sheets (id, organisation_id, slot_id, examiner_membership_id, role, status, started_at, submitted_at)
-      SELECT md5('bx-sheet-' || k || '-' || p)::uuid, $1, md5('bx-slot-' || k || '-' || p)::uuid, $2, 'first', 'submitted', now(), now() FROM ${slotKeys}`,
+      SELECT overlay(overlay(md5('bx-sheet-' || k || '-' || p) placing '4' from 13) placing '8' from 17)::uuid, $1, overlay(overlay(md5('bx-slot-' || k || '-' || p) placing '4' from 13) placing '8' from 17)::uuid, $2, 'first', 'submitted', now(), now() FROM ${slotKeys}`,
       [ctx.org, ctx.examiner]));
   // A student's level rises through the year; each mark scatters around it. Two connections, one
   // half of the sittings each, so both cores work (the machine has two).
   const marksSql = (k0, k1) => `INSERT INTO mark_cells (organisation_id, sheet_id, cell, value, version, last_change_id)
       SELECT $1, s.sheet, 'mark:' || i || ':' || cr.key,
         to_jsonb(least(cr.max_mark, greatest(0, round(cr.max_mark * (s.level + (random() - 0.5) * 0.35))))::int), 1, gen_random_uuid()
-      FROM (SELECT md5('bx-sheet-' || k || '-' || p)::uuid AS sheet,
+      FROM (SELECT overlay(overlay(md5('bx-sheet-' || k || '-' || p) placing '4' from 13) placing '8' from 17)::uuid AS sheet,
                    0.42 + 0.4 * (((k % ${CLASSES}) * ${CLASS_SIZE} + p) % 97) / 97.0 + 0.012 * (k / ${CLASSES}) AS level
               FROM generate_series(${k0}, ${k1}) k, generate_series(0, ${CLASS_SIZE - 1}) p) s
       CROSS JOIN generate_series(0, ${REQUESTS - 1}) i
