@@ -9,7 +9,7 @@ cd "$STAVEMARK_ROOT"
 
 # Add each benchmark here as it lands, e.g. "api/bench/marking-desk.mjs".
 # The "no benchmarks yet" branch below is only for while this list is empty.
-BENCHMARKS=("api/bench/class-import.mjs" "api/bench/marking-saves.mjs")
+BENCHMARKS=("api/bench/class-import.mjs" "api/bench/marking-saves.mjs" "api/bench/results-at-scale.mjs")
 
 timed "npm packages" ensure_npm_packages
 timed "PostgreSQL" bash "$STAVEMARK_SCRIPTS/pg.sh" start

@@ -26,6 +26,7 @@ import { ModerationModule } from './moderation/moderation.module.js';
 import { AgreementModule } from './agreement/agreement.module.js';
 import { StandardisationModule } from './standardisation/standardisation.module.js';
 import { RecordingsModule } from './recordings/recordings.module.js';
+import { ReportsModule } from './reports/reports.module.js';
 
 @Module({
   imports: [
@@ -60,6 +61,7 @@ import { RecordingsModule } from './recordings/recordings.module.js';
     AgreementModule,
     StandardisationModule,
     RecordingsModule,
+    ReportsModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

@@ -625,6 +625,49 @@ const RESULT_ROWS: Row[] = [
   { method: 'get', route: '/api/results/{id}/report', path: () => `/api/results/${randomUUID()}/report`, expect: resultReaders(404) },
 ];
 
+// ---- Results pages, exports and printable reports (issue 8) ------------------------------------
+// Minors' results go only to those who need them: admins and a sitting's planner see every row, a
+// teacher their own pupils' (another teacher's sitting or class answers 404), an examiner the slots
+// they marked once marking has closed; a student reads only their own released take-home report.
+interface ReportCtx {
+  /** Planned by an admin, with one candidate the demo teacher does not teach. */
+  othersSittingId: string;
+}
+const rc = {} as ReportCtx;
+const staffOnly = (ok: number, otherOrg = 404): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: 403, otherOrgAdmin: otherOrg });
+const NO_RESULT = '00000000-0000-4000-8000-0000000000aa';
+
+async function prepareReports(): Promise<void> {
+  const admin = { Authorization: `Bearer ${await tokenFor(EMAIL.admin)}` };
+  const ok = <T>(res: { status: number; body: T; text: string }, status: number): T => {
+    if (res.status !== status) throw new Error(`setup: expected ${status}, got ${res.status} ${res.text}`);
+    return res.body;
+  };
+  const s = ok(await api().post('/api/sittings').set(admin).send(sittingDay('2030-03-04', 'Matrix R', { papers: [{ listVersionId: sc.g3 }] })), 201) as { id: string };
+  ok(await api().post(`/api/sittings/${s.id}/candidates`).set(admin).send({ studentIds: [tc.otherStudentId] }), 200);
+  rc.othersSittingId = s.id;
+}
+
+const REPORT_ROWS: Row[] = [
+  // Today's sitting (the demo teacher planned it; marking still open, so no examiner sees results yet).
+  { method: 'get', route: '/api/sittings/{id}/results', path: () => `/api/sittings/${sc.todayId}/results`, expect: { ...staffOnly(200), examiner: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/results', path: () => `/api/sittings/${rc.othersSittingId}/results`, expect: { ...staffOnly(200), teacher: 404, examiner: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/results/export', path: () => `/api/sittings/${sc.todayId}/results/export?bom=true`, expect: { ...staffOnly(200), examiner: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/results/export', path: () => `/api/sittings/${rc.othersSittingId}/results/export`, expect: { ...staffOnly(200), teacher: 404, examiner: 404 } },
+  { method: 'get', route: '/api/classes/{id}/results', path: () => `/api/classes/${cc.ownClassId}/results`, expect: staffOnly(200) },
+  { method: 'get', route: '/api/classes/{id}/results', path: () => `/api/classes/${cc.otherTeachersClassId}/results`, expect: { ...staffOnly(200), teacher: 404 } },
+  { method: 'get', route: '/api/classes/{id}/results/export', path: () => `/api/classes/${cc.ownClassId}/results/export`, expect: staffOnly(200) },
+  { method: 'get', route: '/api/classes/{id}/results/export', path: () => `/api/classes/${cc.otherTeachersClassId}/results/export?bom=true`, expect: { ...staffOnly(200), teacher: 404 } },
+  { method: 'get', route: '/api/classes/{id}/results/summary', path: () => `/api/classes/${cc.ownClassId}/results/summary`, expect: staffOnly(200) },
+  { method: 'get', route: '/api/classes/{id}/results/summary', path: () => `/api/classes/${cc.otherTeachersClassId}/results/summary`, expect: { ...staffOnly(200), teacher: 404 } },
+  // Each organisation compares and exports its own classes.
+  { method: 'get', route: '/api/results/classes', path: () => '/api/results/classes', expect: staffOnly(200, 200) },
+  { method: 'get', route: '/api/results/export', path: () => '/api/results/export?from=2026-09-01&to=2027-08-31', expect: adminOnly(200) },
+  // A result that is not there (or not the caller's) answers 404; the mark sheet is for staff and examiners only.
+  { method: 'get', route: '/api/results/{id}/mark-sheet', path: () => `/api/results/${NO_RESULT}/mark-sheet`, expect: { ...staffOnly(404), examiner: 404 } },
+  { method: 'get', route: '/api/results/{id}/take-home', path: () => `/api/results/${NO_RESULT}/take-home`, expect: { ...staffOnly(404), student: 404 } },
+];
+
 let seq = 0;
 const ROWS: Row[] = [
   { method: 'get', route: '/api/health', path: () => '/api/health', expect: all(200) },
@@ -668,6 +711,7 @@ const ROWS: Row[] = [
   ...AGREEMENT_ROWS,
   ...RECORDING_ROWS,
   ...RESULT_ROWS,
+  ...REPORT_ROWS,
 ];
 
 describe('role matrix', () => {
@@ -688,6 +732,7 @@ describe('role matrix', () => {
     await prepareAgreement();
     await prepareRecordings();
     await prepareResults();
+    await prepareReports();
     // Every feature's set-up runs here, over HTTP; on a loaded machine it outgrows the default 30 s.
   }, 120_000);
 
@@ -702,7 +747,8 @@ describe('role matrix', () => {
           req = req.attach('file', f.content, { filename: f.name, contentType: 'application/json' });
         }
         const res = await req;
-        seen.push(res.text);
+        // A binary body (the PDFs) has no text; the JSON and CSV answers are all scanned below.
+        seen.push(typeof res.text === 'string' ? res.text : '');
         expect({ status: res.status, body: res.status >= 400 ? res.body : undefined }).toMatchObject({
           status: row.expect[caller],
         });

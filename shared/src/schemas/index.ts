@@ -15,3 +15,4 @@ export * from './starter-library.js';
 export * from './agreement.js';
 export * from './standardisation.js';
 export * from './recordings.js';
+export * from './reports.js';

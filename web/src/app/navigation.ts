@@ -21,6 +21,7 @@ export const navItems: readonly NavItem[] = [
   },
   { to: paths.classes.href(), label: 'Classes', roles: paths.classes.roles },
   { to: paths.sittings.href(), label: 'Sittings', roles: paths.sittings.roles },
+  { to: paths.results.href(), label: 'Results', roles: paths.results.roles },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },
   { to: paths.marking.href(), label: 'Marking', roles: paths.marking.roles },
   { to: paths.myResults.href(), label: 'My results', roles: paths.myResults.roles },

@@ -232,6 +232,19 @@ export const routes: RouteObject[] = [
           element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
         }),
       })),
+      // Results: each page its own chunk (the chart library loads only here).
+      ...(
+        [
+          [paths.results, () => import('@/features/results/pages/ResultsPage').then((m) => <m.ResultsPage />)],
+          [paths.sittingResults, () => import('@/features/results/pages/SittingResultsPage').then((m) => <m.SittingResultsPage />)],
+          [paths.classResults, () => import('@/features/results/pages/ClassResultsPage').then((m) => <m.ClassResultsPage />)],
+        ] as const
+      ).map(([route, load]): RouteObject => ({
+        path: route.path,
+        lazy: async () => ({
+          element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
+        }),
+      })),
       { path: '*', element: <NotFoundPage /> },
     ],
   },

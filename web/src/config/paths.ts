@@ -117,6 +117,18 @@ export const paths = {
   standardisationDeviations: { path: '/standardisation/my-deviations', href: () => '/standardisation/my-deviations', roles: ['examiner'] },
   // Recordings (issue 6): the admin's retention period.
   recordingSettings: { path: '/recordings/settings', href: () => '/recordings/settings', roles: ['admin'] },
+  // Results (issue 8): classes compared, a sitting's and a class's results, exports and PDFs.
+  results: { path: '/results', href: () => '/results', roles: ['admin', 'teacher'] },
+  sittingResults: {
+    path: '/sittings/:sittingId/results',
+    href: (sittingId: string) => `/sittings/${encodeURIComponent(sittingId)}/results`,
+    roles: ['admin', 'teacher', 'examiner'],
+  },
+  classResults: {
+    path: '/classes/:classId/results',
+    href: (classId: string) => `/classes/${encodeURIComponent(classId)}/results`,
+    roles: ['admin', 'teacher'],
+  },
 } as const satisfies Record<
   string,
   { path: string; href: (...args: never[]) => string; roles: readonly Role[] }

@@ -1,0 +1,1 @@
+export const resultsKey = ['results'] as const;
