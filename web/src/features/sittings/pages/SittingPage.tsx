@@ -228,9 +228,11 @@ export function SittingPage() {
               )
             }
           />
-          {/* The agreement report: admins and the planner (permissions.edit) and the lead examiner (first on the panel). */}
+          {/* The agreement report: admins, the planner and the lead examiner (first on the panel), as the API allows; not only while the plan can change. */}
           {s.status !== 'draft' &&
-            (s.permissions.edit || (roles.includes('examiner') && s.examiners[0]?.displayName === me.displayName)) && (
+            (roles.includes('admin') ||
+              (roles.includes('teacher') && s.plannedBy?.displayName === me.displayName) ||
+              (roles.includes('examiner') && s.examiners[0]?.displayName === me.displayName)) && (
               <Button
                 type="button"
                 label="Agreement report"
