@@ -1,4 +1,4 @@
-import { Injectable, type ExecutionContext } from '@nestjs/common';
+import { Injectable, ServiceUnavailableException, type ExecutionContext } from '@nestjs/common';
 import { Reflector } from '@nestjs/core';
 import { AuthGuard as PassportAuthGuard } from '@nestjs/passport';
 import type { Request } from 'express';
@@ -36,7 +36,10 @@ export class AuthGuard extends PassportAuthGuard('jwt') {
 
   override handleRequest<TUser = Caller>(err: unknown, user: TUser | false, info: unknown): TUser {
     if (err instanceof DomainError) throw err;
-    if (err || !user) {
+    // The token was good but checking it failed (e.g. the database pool timed out): answer 503 so
+    // clients retry, rather than 401, which would sign an examiner out mid-slot.
+    if (err) throw new ServiceUnavailableException('Your session could not be checked just now; please try again in a moment.');
+    if (!user) {
       const expired = info instanceof Error && info.name === 'TokenExpiredError';
       throw unauthenticated(expired ? 'Your access token has expired; refresh it or sign in again.' : 'Please sign in.');
     }
