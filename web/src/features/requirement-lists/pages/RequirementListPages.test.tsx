@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import type {
@@ -96,6 +96,9 @@ function api() {
       json(200, { ...draft, ...(req.body as object) }),
   });
 }
+
+// Typing into the whole form is slow on a shared 2-core machine (load ~20 measured).
+vi.setConfig({ testTimeout: 60_000 });
 
 describe('Requirement list pages', () => {
   it('computes note count, notes per second and duration while the teacher types', async () => {

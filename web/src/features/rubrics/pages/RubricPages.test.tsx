@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import type { RubricDetail, RubricSummary, RubricVersionView } from '@stavemark/shared';
@@ -50,6 +50,9 @@ const summary: RubricSummary = {
   versionCount: 2,
 };
 const detail: RubricDetail = { ...summary, versions: [summary.latest, summary.published!] };
+
+// Typing into the whole form is slow on a shared 2-core machine (load ~20 measured).
+vi.setConfig({ testTimeout: 60_000 });
 
 describe('Rubrics pages', () => {
   it('lists rubrics with their latest and published versions; teachers can import and create', async () => {
