@@ -22,6 +22,7 @@ import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
 import { StorageModule } from './storage/storage.module.js';
 import { ResultsModule } from './results/results.module.js';
+import { ProgressModule } from './progress/progress.module.js';
 
 @Module({
   imports: [
@@ -52,6 +53,7 @@ import { ResultsModule } from './results/results.module.js';
     MarkingModule,
     StorageModule,
     ResultsModule,
+    ProgressModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

@@ -10,3 +10,4 @@ export * from './invitations.js';
 export * from './sittings.js';
 export * from './marking.js';
 export * from './results.js';
+export * from './progress.js';
