@@ -483,6 +483,16 @@ const ROWS: Row[] = [
   ...CLASS_ROWS,
   ...SITTING_ROWS,
   ...MARKING_ROWS,
+  ...PROGRESS_ROWS,
+];
+
+// ---- Progress and the attention list (issue 8) --------------------------------------------------
+// A student's year: the student, their teachers, admins; another teacher's student and another
+// organisation's 404; examiners are not a progress role (403). The attention list is for staff.
+const PROGRESS_ROWS: Row[] = [
+  { method: 'get', route: '/api/students/{studentId}/progress', path: () => `/api/students/${tc.ownStudentId}/progress`, expect: { none: 401, admin: 200, teacher: 200, examiner: 403, student: 200, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/students/{studentId}/progress', path: () => `/api/students/${tc.otherStudentId}/progress`, expect: { none: 401, admin: 200, teacher: 404, examiner: 403, student: 404, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/attention', path: () => '/api/attention', expect: { none: 401, admin: 200, teacher: 200, examiner: 403, student: 403, otherOrgAdmin: 200 } },
 ];
 
 describe('role matrix', () => {

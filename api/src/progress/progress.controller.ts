@@ -10,7 +10,7 @@ import { ProgressService } from './progress.service.js';
 export class ProgressController {
   constructor(private readonly progress: ProgressService) {}
 
-  @Get('students/:id/progress')
+  @Get('students/:studentId/progress')
   @Route({
     summary: 'A student’s year: results per sitting, criteria, slip rate, bands, comments, trend and percentile',
     description:
@@ -18,8 +18,8 @@ export class ProgressController {
     roles: ['admin', 'teacher', 'student'],
     owned: true,
   })
-  year(@IdParam() id: string): Promise<ProgressView> {
-    return this.progress.progress(id);
+  year(@IdParam('studentId') studentId: string): Promise<ProgressView> {
+    return this.progress.progress(studentId);
   }
 
   @Get('attention')

@@ -183,6 +183,28 @@ export const routes: RouteObject[] = [
           element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
         }),
       })),
+      // Progress and the attention list: own chunks (the chart library loads only here).
+      ...(
+        [
+          [
+            paths.myProgress,
+            () => import('@/features/progress/pages/ProgressPage').then((m) => <m.MyProgressPage />),
+          ],
+          [
+            paths.studentProgress,
+            () => import('@/features/progress/pages/ProgressPage').then((m) => <m.StudentProgressPage />),
+          ],
+          [
+            paths.attention,
+            () => import('@/features/progress/pages/AttentionPage').then((m) => <m.AttentionPage />),
+          ],
+        ] as const
+      ).map(([route, load]): RouteObject => ({
+        path: route.path,
+        lazy: async () => ({
+          element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
+        }),
+      })),
       { path: '*', element: <NotFoundPage /> },
     ],
   },
