@@ -5,7 +5,7 @@ import { ErrorMessage } from '@/components/ErrorMessage';
 import { PageLoading } from '@/components/PageLoading';
 import { paths } from '@/config/paths';
 import { useToday } from '@/features/today/api/get-today';
-import { useCurrentUser } from '@/lib/auth';
+import { activeRoles, useCurrentUser } from '@/lib/auth';
 import { formatPlainDate } from '@/lib/format';
 import { useProgress } from '../api/get-progress';
 import { ChartWithTable } from '../components/ChartWithTable';
@@ -34,10 +34,10 @@ export function StudentProgressPage() {
 
 function Progress({ studentId, own }: { studentId: string; own: boolean }) {
   const q = useProgress(studentId);
-  const user = useCurrentUser();
+  const roles = activeRoles(useCurrentUser());
   if (q.isPending) return <PageLoading label="Loading the year…" />;
   if (q.isError) return <ErrorMessage error={q.error} what="this student's progress" />;
-  const staff = user.roles.includes('teacher') || user.roles.includes('admin');
+  const staff = roles.includes('teacher') || roles.includes('admin');
   return <ProgressContent v={q.data} own={own} staff={staff} />;
 }
 
