@@ -9,6 +9,7 @@ export default defineConfig({
     pool: 'forks',
     maxWorkers: 2,
     testTimeout: 20_000,
-    hookTimeout: 60_000,
+    // Generous: creating an app and cloning its database takes seconds, far more on a loaded machine.
+    hookTimeout: 180_000,
   },
 });

@@ -22,6 +22,8 @@ import { SittingsModule } from './sittings/sittings.module.js';
 import { MarkingModule } from './marking/marking.module.js';
 import { StorageModule } from './storage/storage.module.js';
 import { ResultsModule } from './results/results.module.js';
+import { AgreementModule } from './agreement/agreement.module.js';
+import { StandardisationModule } from './standardisation/standardisation.module.js';
 import { ProgressModule } from './progress/progress.module.js';
 
 @Module({
@@ -53,6 +55,8 @@ import { ProgressModule } from './progress/progress.module.js';
     MarkingModule,
     StorageModule,
     ResultsModule,
+    AgreementModule,
+    StandardisationModule,
     ProgressModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],

@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { api, tokenFor } from './e2e-support/api';
+import { wavFile } from './support/media-fixtures';
 
 /**
  * Every route × every caller → expected status (design.md §8). A new route must be added here:
@@ -183,6 +184,12 @@ const TEACHING_ROWS: Row[] = [
   { method: 'get', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.otherStudentId}/fingerings`, expect: { ...members(404), admin: 200 } },
   { method: 'post', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.ownStudentId}/fingerings`, body: fingeringBody, expect: editors(201) },
   { method: 'post', route: '/api/students/{studentId}/fingerings', path: () => `/api/students/${tc.otherStudentId}/fingerings`, body: fingeringBody, expect: { ...editors(201), teacher: 404 } },
+
+  // The starter library: teachers and admins of any school; the demo school has every entry from
+  // the seed (409), the other school adds its first copy (201); examiners and students never.
+  { method: 'get', route: '/api/starter-library', path: () => '/api/starter-library', expect: editors(200, 200) },
+  { method: 'post', route: '/api/starter-library/rubrics', path: () => '/api/starter-library/rubrics', body: () => ({ key: 'passages' }), expect: editors(409, 201) },
+  { method: 'post', route: '/api/starter-library/requirement-lists', path: () => '/api/starter-library/requirement-lists', body: () => ({ key: 'grade-1' }), expect: editors(409, 201) },
 ];
 
 // ---- Classes, class-list import, students, account links and the Outbox (issue 4) --------------
@@ -443,7 +450,91 @@ const SITTING_ROWS: Row[] = [
   },
 ];
 
+// ---- Agreement report and standardisation (issue 7) -------------------------------------------
+// A sitting's report: admins, its planner, its lead examiner; a term's: admins and teachers.
+// Exercises: admins and teachers write them, examiners mark published ones blind; a draft is its
+// author's and the admins'; another organisation's exercise or term is 404.
+interface AgreementCtx {
+  termId: string;
+  demoExerciseId: string;
+  /** A teacher's draft (edited by PATCH rows), and per editor a complete draft to publish. */
+  draftId: string;
+  publishable: Record<Editor, string>;
+  /** Published for the matrix, so attempts on it leave the demo exercise to the browser journey. */
+  attemptId: string;
+  criteria: { key: string; maxMark: number }[];
+}
+const ac = {} as AgreementCtx;
+const exerciseBody = (title: string, marks = true) => ({
+  title,
+  rubricVersionId: tc.publishedRubricVersionId,
+  requests: [{ title: 'C major scale', details: 'hands together, two octaves' }],
+  referenceMarks: marks ? ac.criteria.map((c) => ({ request: 0, criterion: c.key, mark: Math.min(2, c.maxMark) })) : [],
+});
+
+async function prepareAgreement(): Promise<void> {
+  const teacher = { Authorization: `Bearer ${await tokenFor(EMAIL.teacher)}` };
+  const admin = { Authorization: `Bearer ${await tokenFor(EMAIL.admin)}` };
+  const ok = <T>(res: { status: number; body: T; text: string }, status: number): T => {
+    if (res.status !== status) throw new Error(`setup: expected ${status}, got ${res.status} ${res.text}`);
+    return res.body;
+  };
+  const scopes = ok(await api().get('/api/agreement/scopes').set(admin), 200) as { terms: { id: string }[] };
+  ac.termId = scopes.terms[0]!.id;
+  const list = ok(await api().get('/api/standardisation/exercises').set(admin), 200) as { id: string; title: string }[];
+  ac.demoExerciseId = list.find((e) => e.title.startsWith('D major scale'))!.id;
+  const rubric = ok(await api().get(`/api/rubric-versions/${tc.publishedRubricVersionId}`).set(admin), 200) as { criteria: { key: string; maxMark: number }[] };
+  ac.criteria = rubric.criteria;
+  const create = async (title: string, marks = true, who = teacher) => (ok(await api().post('/api/standardisation/exercises').set(who).send(exerciseBody(title, marks)), 201) as { id: string }).id;
+  const attach = async (id: string, who = teacher) => ok(await api().post(`/api/standardisation/exercises/${id}/recording`).set(who).attach('file', wavFile({ seconds: 1 }), { filename: 'reference.wav' }), 200);
+  ac.draftId = await create('Matrix draft exercise', false);
+  ac.publishable = { admin: await create('Matrix publish A', true, admin), teacher: await create('Matrix publish T') };
+  await attach(ac.publishable.admin, admin);
+  await attach(ac.publishable.teacher);
+  ac.attemptId = await create('Matrix attempt exercise');
+  await attach(ac.attemptId);
+  ok(await api().post(`/api/standardisation/exercises/${ac.attemptId}/publish`).set(teacher), 200);
+}
+
+const markers = (ok: number, otherOrg = 404): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: ok, student: 403, otherOrgAdmin: otherOrg });
+const AGREEMENT_ROWS: Row[] = [
+  { method: 'get', route: '/api/agreement/scopes', path: () => '/api/agreement/scopes', expect: markers(200, 200) },
+  // Today's sitting: planned by the demo teacher, Priya leads its panel.
+  { method: 'get', route: '/api/sittings/{id}/agreement', path: () => `/api/sittings/${sc.todayId}/agreement`, expect: markers(200) },
+  // Ottilie's panel only: Priya is not its lead examiner.
+  { method: 'get', route: '/api/sittings/{id}/agreement', path: () => `/api/sittings/${sc.unassignedId}/agreement`, expect: { ...markers(200), examiner: 404 } },
+  { method: 'get', route: '/api/terms/{id}/agreement', path: () => `/api/terms/${ac.termId}/agreement`, expect: planners(200) },
+  { method: 'get', route: '/api/standardisation/exercises', path: () => '/api/standardisation/exercises', expect: markers(200, 200) },
+  // Another organisation's admin names a rubric version that is not theirs: refused as invalid.
+  { method: 'post', route: '/api/standardisation/exercises', path: () => '/api/standardisation/exercises', body: (_c, caller) => exerciseBody(`Matrix new ${caller} ${seq++}`), expect: planners(201, 400) },
+  { method: 'get', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.demoExerciseId}`, expect: markers(200) },
+  // A draft is its author's (the demo teacher) and the admins'.
+  { method: 'get', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.draftId}`, expect: { ...markers(200), examiner: 404 } },
+  { method: 'patch', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.draftId}`, body: () => ({ title: 'Matrix draft exercise' }), expect: planners(200) },
+  // Published: fixed (409); it is not the demo teacher's to change at all (an admin wrote it).
+  { method: 'patch', route: '/api/standardisation/exercises/{id}', path: () => `/api/standardisation/exercises/${ac.demoExerciseId}`, body: () => ({ title: 'Changed' }), expect: { ...planners(409), teacher: 404 } },
+  // Streamed to storage, typed from its bytes; the draft's author and admins only.
+  { method: 'post', route: '/api/standardisation/exercises/{id}/recording', path: () => `/api/standardisation/exercises/${ac.draftId}/recording`, file: () => ({ name: 'reference.wav', content: wavFile({ seconds: 1 }) }), expect: planners(200) },
+  { method: 'get', route: '/api/standardisation/exercises/{id}/recording-url', path: () => `/api/standardisation/exercises/${ac.demoExerciseId}/recording-url`, expect: markers(200) },
+  { method: 'post', route: '/api/standardisation/exercises/{id}/publish', path: (_c, caller) => `/api/standardisation/exercises/${ac.publishable[editorOf(caller)]}/publish`, expect: planners(200) },
+  { method: 'put', route: '/api/standardisation/exercises/{id}/attempt', path: () => `/api/standardisation/exercises/${ac.attemptId}/attempt`, body: () => ({ marks: [] }), expect: examinerOnly(200) },
+  // A draft is not there for an examiner.
+  { method: 'put', route: '/api/standardisation/exercises/{id}/attempt', path: () => `/api/standardisation/exercises/${ac.draftId}/attempt`, body: () => ({ marks: [] }), expect: examinerOnly(404) },
+  // Marks missing: 400 with each listed.
+  { method: 'post', route: '/api/standardisation/exercises/{id}/attempt/submit', path: () => `/api/standardisation/exercises/${ac.attemptId}/attempt/submit`, body: () => ({ marks: [] }), expect: examinerOnly(400) },
+  { method: 'get', route: '/api/standardisation/deviations', path: () => '/api/standardisation/deviations', expect: examinerOnly(200) },
+];
+
 let seq = 0;
+// ---- Progress and the attention list (issue 8) --------------------------------------------------
+// A student's year: the student, their teachers, admins; another teacher's student and another
+// organisation's 404; examiners are not a progress role (403). The attention list is for staff.
+const PROGRESS_ROWS: Row[] = [
+  { method: 'get', route: '/api/students/{studentId}/progress', path: () => `/api/students/${tc.ownStudentId}/progress`, expect: { none: 401, admin: 200, teacher: 200, examiner: 403, student: 200, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/students/{studentId}/progress', path: () => `/api/students/${tc.otherStudentId}/progress`, expect: { none: 401, admin: 200, teacher: 404, examiner: 403, student: 404, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/attention', path: () => '/api/attention', expect: { none: 401, admin: 200, teacher: 200, examiner: 403, student: 403, otherOrgAdmin: 200 } },
+];
+
 const ROWS: Row[] = [
   { method: 'get', route: '/api/health', path: () => '/api/health', expect: all(200) },
   // Public: the signed URL is the permission; a link that was not signed by us is refused for everyone.
@@ -483,16 +574,8 @@ const ROWS: Row[] = [
   ...CLASS_ROWS,
   ...SITTING_ROWS,
   ...MARKING_ROWS,
+  ...AGREEMENT_ROWS,
   ...PROGRESS_ROWS,
-];
-
-// ---- Progress and the attention list (issue 8) --------------------------------------------------
-// A student's year: the student, their teachers, admins; another teacher's student and another
-// organisation's 404; examiners are not a progress role (403). The attention list is for staff.
-const PROGRESS_ROWS: Row[] = [
-  { method: 'get', route: '/api/students/{studentId}/progress', path: () => `/api/students/${tc.ownStudentId}/progress`, expect: { none: 401, admin: 200, teacher: 200, examiner: 403, student: 200, otherOrgAdmin: 404 } },
-  { method: 'get', route: '/api/students/{studentId}/progress', path: () => `/api/students/${tc.otherStudentId}/progress`, expect: { none: 401, admin: 200, teacher: 404, examiner: 403, student: 404, otherOrgAdmin: 404 } },
-  { method: 'get', route: '/api/attention', path: () => '/api/attention', expect: { none: 401, admin: 200, teacher: 200, examiner: 403, student: 403, otherOrgAdmin: 200 } },
 ];
 
 describe('role matrix', () => {
@@ -510,7 +593,9 @@ describe('role matrix', () => {
     await prepareTeaching();
     await prepareSittings();
     await prepareMarking();
-  });
+    await prepareAgreement();
+    // Every feature's set-up runs here, over HTTP; on a loaded machine it outgrows the default 30 s.
+  }, 120_000);
 
   for (const row of ROWS) {
     for (const caller of CALLERS) {

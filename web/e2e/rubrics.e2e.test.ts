@@ -3,8 +3,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { Locator, Page } from 'playwright-core';
-import { launch, screenshot, type Session } from './support/browser';
-import { DEMO, navLink, signIn } from './support/sign-in';
+import { BASE_URL, launch, screenshot, type Session } from './support/browser';
+import { DEMO, DEMO_PASSWORD, navLink, signIn } from './support/sign-in';
 
 /** A unique name per run, so the journey can run against a database that has seen it before. */
 const stamp = new Date().toISOString().slice(11, 19).replace(/:/g, '');
@@ -237,6 +237,94 @@ describe('a teacher writes a rubric and a requirement list', () => {
     await lines.getByText('6.5 s').waitFor();
     await page.getByRole('table', { name: 'Sample draw' }).waitFor();
     await screenshot(page, 'requirement-list-saved');
+
+    // The starter library: the demo school has every entry already, each with a way to it.
+    await navLink(page, 'Requirement lists').click();
+    await page.getByRole('button', { name: 'Add from the starter library' }).click();
+    const starter = page.getByRole('dialog', { name: 'Add from the starter library' });
+    const grade1 = starter.getByRole('listitem', { name: 'Grade 1 technique' });
+    await grade1.getByText('In your school').waitFor();
+    await grade1.getByRole('link', { name: 'Open' }).waitFor();
+    await screenshot(page, 'starter-library-lists');
+    await page.keyboard.press('Escape');
+    await starter.waitFor({ state: 'hidden' });
+    expect(s.problems).toEqual([]);
+  });
+
+  it('records a student’s approved fingering from the class list and sees it on the list', async () => {
+    const page = s.page;
+    await signIn(page, DEMO.teacher);
+    await navLink(page, 'Classes').click();
+    await page.getByRole('link', { name: /Monday Foundations/ }).click();
+    await page.getByRole('heading', { name: 'Monday Foundations', level: 1 }).waitFor();
+    await page.getByRole('button', { name: 'Fingerings of Ada Pendry' }).click();
+    await page
+      .getByRole('heading', { name: 'Approved fingerings: Ada Pendry', level: 1 })
+      .waitFor();
+
+    await page.getByRole('button', { name: 'Record a fingering' }).click();
+    const form = page.getByRole('form', { name: 'Record a fingering for Ada Pendry' });
+    await pickFromDropdown(page, form, 'Key', 'G');
+    // One octave up and down: 2·(7·1+1)−1 = 15 notes (design.md §4.2, worked by hand).
+    await form.getByText(/G major scale, 1 octave up and down: 15 notes/).waitFor();
+    const fingers = form.getByLabel('Fingering', { exact: true });
+    await fingers.fill('1 2 3 1 2 3 4 5');
+    await form.getByText('Too few fingers: 8 given, 15 notes (missing from position 9).').waitFor();
+    await screenshot(page, 'fingering-form-too-few');
+    // G major, right hand, one octave up and down: 1-2-3-1-2-3-4-5-4-3-2-1-3-2-1 (common
+    // practice, from memory).
+    await fingers.fill('1-2-3-1-2-3-4-5-4-3-2-1-3-2-1');
+    await form.getByText(/; 15 typed\./).waitFor();
+    await form.getByLabel(/Note for the student/).fill('Thumb under after B on the way up.');
+    await form.getByRole('button', { name: 'Save fingering' }).click();
+    await form.waitFor({ state: 'hidden' });
+
+    const table = page.getByRole('table', { name: 'Approved fingerings' });
+    const row = table.getByRole('row').filter({ hasText: 'G major scale' });
+    await row.getByText('1-2-3-1-2-3-4-5-4-3-2-1-3-2-1').waitFor();
+    await row.getByText('1 octave, up and down').waitFor();
+    await row.getByText('Thumb under after B on the way up.').waitFor();
+    await screenshot(page, 'fingerings-list');
+
+    // Replace it with the way up only: a new revision; the earlier one stays as history.
+    await row
+      .getByRole('button', { name: 'Replace the fingering: G major scale, right hand' })
+      .click();
+    const replace = page.getByRole('form', { name: 'Replace the fingering: G major scale' });
+    await replace.getByLabel('Up only').check();
+    await replace
+      .getByText('Too many fingers: 15 given, 8 notes (surplus from position 9).')
+      .waitFor();
+    await replace.getByLabel('Fingering', { exact: true }).fill('12312345');
+    await replace.getByRole('button', { name: 'Save fingering' }).click();
+    await replace.waitFor({ state: 'hidden' });
+    await row.getByText('1-2-3-1-2-3-4-5', { exact: true }).waitFor();
+    await row
+      .getByRole('button', { name: 'Show earlier fingerings: G major scale, right hand' })
+      .click();
+    const history = page.getByRole('table', {
+      name: 'Earlier fingerings: G major scale, right hand',
+    });
+    await history.getByText('1-2-3-1-2-3-4-5-4-3-2-1-3-2-1').first().waitFor();
+    await screenshot(page, 'fingerings-history');
+
+    // The API holds the same (read with a sign-in of its own): the current one is the last saved.
+    const studentId = /students\/([^/]+)\/fingerings/.exec(page.url())![1]!;
+    const login = await fetch(`${BASE_URL}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify({ email: DEMO.teacher, password: DEMO_PASSWORD }),
+    });
+    const { accessToken } = (await login.json()) as { accessToken: string };
+    const res = await fetch(`${BASE_URL}/api/students/${studentId}/fingerings`, {
+      headers: { Authorization: `Bearer ${accessToken}` },
+    });
+    expect(res.status).toBe(200);
+    const current = (await res.json()) as { key: string; digits: number[]; direction: string }[];
+    expect(current.find((f) => f.key === 'G')).toMatchObject({
+      direction: 'up',
+      digits: [1, 2, 3, 1, 2, 3, 4, 5],
+    });
     expect(s.problems).toEqual([]);
   });
 });

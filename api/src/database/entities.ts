@@ -28,6 +28,8 @@ import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
 import { MarkCell } from '../marking/entities/mark-cell.entity.js';
 import { MarkChange } from '../marking/entities/mark-change.entity.js';
 import { Result } from '../results/entities/result.entity.js';
+import { StandardisationExercise } from '../standardisation/entities/standardisation-exercise.entity.js';
+import { StandardisationAttempt } from '../standardisation/entities/standardisation-attempt.entity.js';
 
 /** Every entity, listed once for the data source, the tests and the CLI. */
 export const entities = [
@@ -61,4 +63,6 @@ export const entities = [
   MarkCell,
   MarkChange,
   Result,
+  StandardisationExercise,
+  StandardisationAttempt,
 ];

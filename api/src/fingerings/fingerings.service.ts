@@ -13,7 +13,7 @@ import { AuditService } from '../audit/audit.service.js';
 import { conflict, notFound } from '../common/errors.js';
 import { RequestContext } from '../common/request-context.js';
 import { ScopedRepository } from '../common/scoped-repository.js';
-import { isUniqueViolation } from '../rubrics/versioning.js';
+import { isUniqueViolation } from '../common/versioned-documents.js';
 import { Student } from '../students/entities/student.entity.js';
 import { StudentFingering } from './entities/student-fingering.entity.js';
 import { requestIdentityOf, toCurrentFingerings } from './fingerings.mapper.js';

@@ -4,7 +4,9 @@ import { MailAndAccountLinks1796163605141 } from './1796163605141-MailAndAccount
 import { Sittings1796164957096 } from './1796164957096-Sittings.js';
 import { MarkingDesk1796165637720 } from './1796165637720-MarkingDesk.js';
 import { Results1796173495994 } from './1796173495994-Results.js';
+import { Standardisation1796173567184 } from './1796173567184-Standardisation.js';
+import { ReferenceRecording1796175275320 } from './1796175275320-ReferenceRecording.js';
 import { ProgressIndexes1796176027165 } from './1796176027165-ProgressIndexes.js';
 
 /** Listed by class, not by glob, so tests and dist/ share one list (toolchain.md). Append only. */
-export const migrations = [Foundation1764633600000, RubricsListsFingerings1796163564233, MailAndAccountLinks1796163605141, Sittings1796164957096, MarkingDesk1796165637720, Results1796173495994, ProgressIndexes1796176027165];
+export const migrations = [Foundation1764633600000, RubricsListsFingerings1796163564233, MailAndAccountLinks1796163605141, Sittings1796164957096, MarkingDesk1796165637720, Results1796173495994, Standardisation1796173567184, ReferenceRecording1796175275320, ProgressIndexes1796176027165];

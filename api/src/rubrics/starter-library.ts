@@ -99,6 +99,109 @@ export function readStarterLibrary(dir = STARTER_DIR): {
   return { rubrics, lists };
 }
 
+/** The repositories a starter entry is written through, all scoped to one organisation. */
+export interface StarterRepos {
+  em: EntityManager;
+  rubrics: ScopedRepository<Rubric>;
+  versions: ScopedRepository<RubricVersion>;
+  lists: ScopedRepository<RequirementList>;
+  listVersions: ScopedRepository<RequirementListVersion>;
+}
+
+export function starterRepos(em: EntityManager, organisationId: () => string): StarterRepos {
+  const scoped = <T extends { id: string; organisationId: string }>(
+    target: new () => T,
+    what: string,
+  ) => new ScopedRepository<T>(em.getRepository<T>(target), what, organisationId);
+  return {
+    em,
+    rubrics: scoped(Rubric, 'rubric'),
+    versions: scoped(RubricVersion, 'rubric version'),
+    lists: scoped(RequirementList, 'requirement list'),
+    listVersions: scoped(RequirementListVersion, 'requirement list version'),
+  };
+}
+
+/** The newest published version of the organisation's copy of a starter rubric, if any. */
+export async function publishedStarterRubric(
+  r: StarterRepos,
+  key: string,
+): Promise<{ rubric: Rubric | null; version: RubricVersion | null }> {
+  const rubric = await r.rubrics.findOne({ where: { starterKey: key } });
+  if (!rubric) return { rubric: null, version: null };
+  const version = await r.versions.findOne({
+    where: { rubricId: rubric.id, status: 'published' },
+    order: { version: 'DESC' },
+  });
+  return { rubric, version };
+}
+
+/** A starter rubric as a new rubric whose version 1 is published (by `by`, or by nobody: the seed). */
+export async function insertStarterRubric(
+  r: StarterRepos,
+  { key, file }: StarterRubric,
+  by: string | null,
+): Promise<RubricVersion> {
+  const rubric = await r.rubrics.save(r.rubrics.create({ starterKey: key }));
+  const v = await r.versions.save(
+    r.versions.create({
+      rubricId: rubric.id,
+      version: 1,
+      status: 'published',
+      name: file.rubric.name,
+      kinds: file.rubric.kinds,
+      publishedAt: now(),
+      createdByPersonId: by,
+      publishedByPersonId: by,
+    }),
+  );
+  await r.em.save(RubricCriterionRow, toCriterionRows(v.id, file.rubric));
+  return v;
+}
+
+/**
+ * A starter list as a new list whose version 1 is published; `rubricVersionIds` maps each
+ * starter rubric key its lines name to the organisation's rubric version.
+ */
+export async function insertStarterList(
+  r: StarterRepos,
+  { key, body }: StarterList,
+  rubricVersionIds: ReadonlyMap<string, string>,
+  by: string | null,
+): Promise<RequirementListVersion> {
+  const resolved = {
+    ...body,
+    lines: body.lines.map((l, i) => {
+      const id = rubricVersionIds.get(l.rubricVersionId);
+      if (!id) throw new Error(`starter list ${key}: no rubric version for "${l.rubricVersionId}"`);
+      return { ...l, id: `line-${i}`, rubricVersionId: id };
+    }),
+  };
+  drawRequests(resolved, resolved.selectionRule, `starter-${key}`); // throws if the rule cannot be honoured
+  const list = await r.lists.save(r.lists.create({ starterKey: key }));
+  const v = await r.listVersions.save(
+    r.listVersions.create({
+      listId: list.id,
+      version: 1,
+      status: 'published',
+      name: body.name,
+      grade: body.grade,
+      totalMarks: body.totalMarks,
+      selectionRule: body.selectionRule,
+      publishedAt: now(),
+      createdByPersonId: by,
+      publishedByPersonId: by,
+    }),
+  );
+  await r.em.save(RequirementLineRow, toLineRows(v.id, resolved));
+  return v;
+}
+
+/** Starter rubric keys a starter list's lines are marked with, in order of first use. */
+export function rubricKeysOf(list: StarterList): string[] {
+  return [...new Set(list.body.lines.map((l) => l.rubricVersionId))];
+}
+
 /**
  * Loads the starter library into one organisation as published version 1 of each rubric and
  * list. Idempotent: an entry already there (by starter key) is left alone, edits included.
@@ -108,76 +211,26 @@ export async function seedStarterLibrary(
   organisationId: string,
   dir = STARTER_DIR,
 ): Promise<{ rubrics: number; lists: number }> {
-  const scoped = <T extends { id: string; organisationId: string }>(
-    target: new () => T,
-    what: string,
-  ) => new ScopedRepository<T>(em.getRepository<T>(target), what, () => organisationId);
-  const rubrics = scoped(Rubric, 'rubric');
-  const versions = scoped(RubricVersion, 'rubric version');
-  const lists = scoped(RequirementList, 'requirement list');
-  const listVersions = scoped(RequirementListVersion, 'requirement list version');
+  const r = starterRepos(em, () => organisationId);
   const library = readStarterLibrary(dir);
-  const publishedAt = now();
   const added = { rubrics: 0, lists: 0 };
 
   const versionIdByKey = new Map<string, string>();
-  for (const { key, file } of library.rubrics) {
-    const existing = await rubrics.findOne({ where: { starterKey: key } });
-    if (existing) {
-      const published = await versions.findOne({
-        where: { rubricId: existing.id, status: 'published' },
-        order: { version: 'DESC' },
-      });
-      if (published) versionIdByKey.set(key, published.id);
+  for (const entry of library.rubrics) {
+    const existing = await publishedStarterRubric(r, entry.key);
+    if (existing.rubric) {
+      if (existing.version) versionIdByKey.set(entry.key, existing.version.id);
       continue;
     }
-    const rubric = await rubrics.save(rubrics.create({ starterKey: key }));
-    const v = await versions.save(
-      versions.create({
-        rubricId: rubric.id,
-        version: 1,
-        status: 'published',
-        name: file.rubric.name,
-        kinds: file.rubric.kinds,
-        publishedAt,
-        createdByPersonId: null,
-        publishedByPersonId: null,
-      }),
-    );
-    await em.save(RubricCriterionRow, toCriterionRows(v.id, file.rubric));
-    versionIdByKey.set(key, v.id);
+    versionIdByKey.set(entry.key, (await insertStarterRubric(r, entry, null)).id);
     added.rubrics++;
   }
 
-  for (const { key, body } of library.lists) {
-    if (await lists.findOne({ where: { starterKey: key } })) continue;
+  for (const entry of library.lists) {
+    if (await r.lists.findOne({ where: { starterKey: entry.key } })) continue;
     // A teacher may have replaced a starter rubric's published version; then the list is not added.
-    if (body.lines.some((l) => !versionIdByKey.has(l.rubricVersionId))) continue;
-    const resolved = {
-      ...body,
-      lines: body.lines.map((l, i) => ({
-        ...l,
-        id: `line-${i}`,
-        rubricVersionId: versionIdByKey.get(l.rubricVersionId)!,
-      })),
-    };
-    drawRequests(resolved, resolved.selectionRule, `starter-${key}`); // throws if the rule cannot be honoured
-    const list = await lists.save(lists.create({ starterKey: key }));
-    const v = await listVersions.save(
-      listVersions.create({
-        listId: list.id,
-        version: 1,
-        status: 'published',
-        name: body.name,
-        grade: body.grade,
-        totalMarks: body.totalMarks,
-        selectionRule: body.selectionRule,
-        publishedAt,
-        createdByPersonId: null,
-        publishedByPersonId: null,
-      }),
-    );
-    await em.save(RequirementLineRow, toLineRows(v.id, resolved));
+    if (rubricKeysOf(entry).some((k) => !versionIdByKey.has(k))) continue;
+    await insertStarterList(r, entry, versionIdByKey, null);
     added.lists++;
   }
   return added;

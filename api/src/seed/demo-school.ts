@@ -5,6 +5,7 @@ import { hashPassword } from '../auth/passwords.js';
 import { seedStarterLibrary } from '../rubrics/starter-library.js';
 import { seedDemoSittings } from '../sittings/demo-sittings.js';
 import { seedDemoYear } from './demo-year.js';
+import { seedDemoStandardisation } from './demo-standardisation.js';
 
 export const DEMO_PASSWORD = 'stavemark-demo';
 
@@ -149,5 +150,6 @@ export async function seedDemo(em: EntityManager, data: DemoSchool, today: strin
   await seedStarterLibrary(em, organisationId);
   await seedDemoSittings(em, organisationId, today);
   await seedDemoYear(em, organisationId, today);
+  await seedDemoStandardisation(em, organisationId, today);
   return { organisationId };
 }

@@ -10,4 +10,7 @@ export * from './invitations.js';
 export * from './sittings.js';
 export * from './marking.js';
 export * from './results.js';
+export * from './starter-library.js';
+export * from './agreement.js';
+export * from './standardisation.js';
 export * from './progress.js';

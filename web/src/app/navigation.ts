@@ -25,6 +25,8 @@ export const navItems: readonly NavItem[] = [
   { to: paths.myProgress.href(), label: 'Progress', roles: paths.myProgress.roles },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },
   { to: paths.marking.href(), label: 'Marking', roles: paths.marking.roles },
+  { to: paths.agreement.href(), label: 'Agreement', roles: paths.agreement.roles },
+  { to: paths.standardisation.href(), label: 'Standardisation', roles: paths.standardisation.roles },
 ];
 
 export function navItemsFor(roles: readonly Role[]): NavItem[] {

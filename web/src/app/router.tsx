@@ -78,6 +78,13 @@ export const routes: RouteObject[] = [
         },
       },
       {
+        path: paths.studentFingerings.path,
+        lazy: async () => {
+          const { StudentFingeringsPage } = await import('@/features/classes/pages/StudentFingeringsPage');
+          return { element: <RequireAuth roles={paths.studentFingerings.roles}><StudentFingeringsPage /></RequireAuth> };
+        },
+      },
+      {
         path: paths.outbox.path,
         lazy: async () => {
           const { OutboxPage } = await import('@/features/outbox/pages/OutboxPage');
@@ -176,6 +183,22 @@ export const routes: RouteObject[] = [
                 <m.DaySchedulePage />
               )),
           ],
+        ] as const
+      ).map(([route, load]): RouteObject => ({
+        path: route.path,
+        lazy: async () => ({
+          element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
+        }),
+      })),
+      // Agreement and standardisation (issue 7): the chart library loads with these pages only.
+      ...(
+        [
+          [paths.agreement, () => import('@/features/agreement/pages/AgreementPage').then((m) => <m.AgreementPage />)],
+          [paths.sittingAgreement, () => import('@/features/agreement/pages/AgreementPage').then((m) => <m.SittingAgreementPage />)],
+          [paths.standardisation, () => import('@/features/standardisation/pages/ExercisesPage').then((m) => <m.ExercisesPage />)],
+          [paths.standardisationNew, () => import('@/features/standardisation/pages/NewExercisePage').then((m) => <m.NewExercisePage />)],
+          [paths.standardisationExercise, () => import('@/features/standardisation/pages/ExercisePage').then((m) => <m.ExercisePage />)],
+          [paths.standardisationDeviations, () => import('@/features/standardisation/pages/DeviationsPage').then((m) => <m.DeviationsPage />)],
         ] as const
       ).map(([route, load]): RouteObject => ({
         path: route.path,

@@ -15,6 +15,13 @@ export const paths = {
     href: (classId: string) => `/classes/${encodeURIComponent(classId)}`,
     roles: ['admin', 'teacher'],
   },
+  // A student's approved fingerings, reached from a class's members (design.md §5).
+  studentFingerings: {
+    path: '/classes/:classId/students/:studentId/fingerings',
+    href: (classId: string, studentId: string) =>
+      `/classes/${encodeURIComponent(classId)}/students/${encodeURIComponent(studentId)}/fingerings`,
+    roles: ['admin', 'teacher'],
+  },
   outbox: { path: '/outbox', href: () => '/outbox', roles: ['admin'] },
   // Progress (issue 8): the student's own year, a student's year for their teachers and admins,
   // and the teacher's attention list.
@@ -81,6 +88,26 @@ export const paths = {
     href: (date?: string) => `/schedule${date ? `?date=${encodeURIComponent(date)}` : ''}`,
     roles: ['admin', 'teacher', 'examiner'],
   },
+  // Agreement between examiners and standardisation (issue 7): staff and examiners.
+  agreement: {
+    path: '/agreement',
+    href: (scope?: { sitting?: string; term?: string }) =>
+      scope?.term ? `/agreement?term=${encodeURIComponent(scope.term)}` : scope?.sitting ? `/agreement?sitting=${encodeURIComponent(scope.sitting)}` : '/agreement',
+    roles: ['admin', 'teacher', 'examiner'],
+  },
+  sittingAgreement: {
+    path: '/sittings/:sittingId/agreement',
+    href: (sittingId: string) => `/sittings/${encodeURIComponent(sittingId)}/agreement`,
+    roles: ['admin', 'teacher', 'examiner'],
+  },
+  standardisation: { path: '/standardisation', href: () => '/standardisation', roles: ['admin', 'teacher', 'examiner'] },
+  standardisationNew: { path: '/standardisation/new', href: () => '/standardisation/new', roles: ['admin', 'teacher'] },
+  standardisationExercise: {
+    path: '/standardisation/exercises/:exerciseId',
+    href: (exerciseId: string) => `/standardisation/exercises/${encodeURIComponent(exerciseId)}`,
+    roles: ['admin', 'teacher', 'examiner'],
+  },
+  standardisationDeviations: { path: '/standardisation/my-deviations', href: () => '/standardisation/my-deviations', roles: ['examiner'] },
 } as const satisfies Record<
   string,
   { path: string; href: (...args: never[]) => string; roles: readonly Role[] }

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useNavigate, useParams } from 'react-router-dom';
 import { DataTable } from 'primereact/datatable';
 import { Column } from 'primereact/column';
 import { Button } from 'primereact/button';
@@ -26,6 +26,7 @@ const consentText = (v: boolean | null, what: string) =>
 
 export function ClassDetailPage() {
   const { classId = '' } = useParams();
+  const navigate = useNavigate();
   const detail = useClass(classId);
   const classes = useClasses();
   const updateClass = useUpdateClass();
@@ -75,6 +76,15 @@ export function ClassDetailPage() {
     const name = `${s.givenName} ${s.familyName}`;
     return (
       <span className="sm-row-actions">
+        <Button
+          type="button"
+          size="small"
+          severity="secondary"
+          icon="pi pi-list"
+          label="Fingerings"
+          aria-label={`Fingerings of ${name}`}
+          onClick={() => navigate(paths.studentFingerings.href(c.id, s.id))}
+        />
         <Button
           type="button"
           size="small"
@@ -211,7 +221,7 @@ export function ClassDetailPage() {
           <Column
             header={<span className="sm-visually-hidden">Actions</span>}
             body={actionsBody}
-            style={{ width: '14rem' }}
+            style={{ width: '21rem' }}
           />
         </DataTable>
       </div>

@@ -13,46 +13,36 @@ import {
   type BeatUnit,
   type Direction,
   type Dynamic,
-  type Hands,
-  type Inversion,
-  type Mode,
   type Motion,
   type NoteNameConvention,
   type Request,
   type RequestKind,
   type Tempo,
 } from '@stavemark/shared';
+import {
+  DIRECTION_LABELS,
+  HANDS_LABELS,
+  INVERSION_LABELS,
+  KIND_LABELS,
+  octavesLabel,
+} from '@/components/music-labels';
 
-export const KIND_LABELS: Record<RequestKind, string> = {
-  scale: 'Scale',
-  arpeggio: 'Arpeggio',
-  broken_chord: 'Broken chord',
-  chromatic: 'Chromatic scale',
-  dominant_seventh: 'Dominant seventh',
-  diminished_seventh: 'Diminished seventh',
-  passage: 'Passage',
-  other: 'Other',
-};
-export const MODE_LABELS: Record<Mode, string> = {
-  major: 'major',
-  harmonic_minor: 'harmonic minor',
-  melodic_minor: 'melodic minor',
-  natural_minor: 'natural minor',
-};
-export const HANDS_LABELS: Record<Hands, string> = {
-  RH: 'right hand',
-  LH: 'left hand',
-  HT: 'hands together',
-};
+// The vocabulary shared with other pages lives in components/music-labels.ts.
+export {
+  DIRECTION_LABELS,
+  HANDS_LABELS,
+  INVERSION_LABELS,
+  KIND_LABELS,
+  keyWord,
+  MODE_LABELS,
+  octavesLabel,
+} from '@/components/music-labels';
+
 export const MOTION_LABELS: Record<Motion, string> = {
   similar: 'similar motion',
   contrary: 'contrary motion',
   third_apart: 'a third apart',
   sixth_apart: 'a sixth apart',
-};
-export const DIRECTION_LABELS: Record<Direction, string> = {
-  up: 'up only',
-  up_down: 'up and down',
 };
 export const ARTICULATION_LABELS: Record<Articulation, string> = {
   legato: 'legato',
@@ -68,21 +58,6 @@ export const DYNAMIC_LABELS: Record<Dynamic, string> = {
   crescendo: 'crescendo',
   diminuendo: 'diminuendo',
 };
-export const INVERSION_LABELS: Record<Inversion, string> = {
-  root: 'root position',
-  first: 'first inversion',
-  second: 'second inversion',
-  third: 'third inversion',
-};
-
-/** "starting on" for kinds played from a note rather than in a key. */
-export function keyWord(kind: RequestKind): string {
-  return kind === 'chromatic' || kind === 'diminished_seventh' ? 'starting notes' : 'keys';
-}
-
-export function octavesLabel(n: number): string {
-  return `${n} ${n === 1 ? 'octave' : 'octaves'}`;
-}
 
 /** "crotchet = 80, semiquavers" in the person's convention. */
 export function tempoLabel(tempo: Tempo, convention: NoteNameConvention): string {

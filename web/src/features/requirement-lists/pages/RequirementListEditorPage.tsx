@@ -1,5 +1,4 @@
-import { useId } from 'react';
-import { Link, useNavigate, useParams } from 'react-router-dom';
+import { useNavigate, useParams } from 'react-router-dom';
 import type { RequirementListVersionView } from '@stavemark/shared';
 import { paths } from '@/config/paths';
 import '../requirement-lists.css';
@@ -8,6 +7,7 @@ import { notify } from '@/lib/notify';
 import { Alert } from '@/components/Alert';
 import { ErrorMessage } from '@/components/ErrorMessage';
 import { PageLoading } from '@/components/PageLoading';
+import { saveLabel, VersionEditorPage } from '@/components/VersionedDocument';
 import { useCreateRequirementList } from '../api/create-requirement-list';
 import { useCreateRequirementListVersion } from '../api/create-requirement-list-version';
 import { useRequirementList } from '../api/get-requirement-list';
@@ -44,7 +44,6 @@ function blankList(options: RubricOption[]): ListFields {
 }
 
 export function NewRequirementListPage() {
-  const id = useId();
   const navigate = useNavigate();
   const me = useCurrentUser();
   const rubrics = useRubricOptions();
@@ -53,28 +52,26 @@ export function NewRequirementListPage() {
     return <ErrorMessage error={rubrics.error} what="the rubrics to mark with" />;
   if (!rubrics.data) return <PageLoading />;
   return (
-    <section aria-labelledby={`${id}-title`}>
-      <p className="sm-breadcrumb">
-        <Link to={paths.requirementLists.href()}>Requirement lists</Link>
-      </p>
-      <div className="sm-page-header">
-        <div>
-          <h1 id={`${id}-title`}>New requirement list</h1>
-          <p className="sm-page-subtitle">
-            Saved as a draft (version 1); publish it when sittings may use it.
-          </p>
-        </div>
-      </div>
-      {rubrics.data.length === 0 && (
-        <Alert severity="warn">
-          There are no rubrics yet. Create one first: every line is marked with a rubric.
-        </Alert>
-      )}
+    <VersionEditorPage
+      crumbs={[{ label: 'Requirement lists', href: paths.requirementLists.href() }]}
+      newPage={{
+        title: 'New requirement list',
+        subtitle: 'Saved as a draft (version 1); publish it when sittings may use it.',
+      }}
+      readyWhen="when sittings may use it"
+      notices={
+        rubrics.data.length === 0 && (
+          <Alert severity="warn">
+            There are no rubrics yet. Create one first: every line is marked with a rubric.
+          </Alert>
+        )
+      }
+    >
       <RequirementListForm
         defaultValues={blankList(rubrics.data)}
         rubricOptions={rubrics.data}
         convention={me.noteNames}
-        submitLabel="Save draft"
+        submitLabel={saveLabel()}
         onCancel={() => navigate(paths.requirementLists.href())}
         onSave={async (body) => {
           const v = await create.mutateAsync(body);
@@ -82,12 +79,11 @@ export function NewRequirementListPage() {
           navigate(paths.requirementList.href(v.listId, v.version));
         }}
       />
-    </section>
+    </VersionEditorPage>
   );
 }
 
 export function EditRequirementListPage() {
-  const id = useId();
   const { listId = '' } = useParams();
   const navigate = useNavigate();
   const me = useCurrentUser();
@@ -101,37 +97,27 @@ export function EditRequirementListPage() {
   if (error) return <ErrorMessage error={error} what="this requirement list" />;
   if (!latest.data || !rubrics.data) return <PageLoading />;
   const v = latest.data;
-  const isDraft = v.status === 'draft';
   return (
-    <section aria-labelledby={`${id}-title`}>
-      <p className="sm-breadcrumb">
-        <Link to={paths.requirementLists.href()}>Requirement lists</Link> /{' '}
-        <Link to={paths.requirementList.href(listId)}>{v.name}</Link>
-      </p>
-      <div className="sm-page-header">
-        <div>
-          <h1 id={`${id}-title`}>
-            {isDraft ? `Edit draft version ${v.version}` : `New version of “${v.name}”`}
-          </h1>
-        </div>
-      </div>
-      {!isDraft && (
-        <Alert severity="info">
-          Version {v.version} is published and stays exactly as it is. Saving makes version{' '}
-          {v.version + 1}, a draft, which you publish when sittings may use it.
-        </Alert>
-      )}
+    <VersionEditorPage
+      crumbs={[
+        { label: 'Requirement lists', href: paths.requirementLists.href() },
+        { label: v.name, href: paths.requirementList.href(listId) },
+      ]}
+      editing={v}
+      readyWhen="when sittings may use it"
+    >
       <RequirementListForm
         key={v.id}
         defaultValues={fieldsOf(v)}
         rubricOptions={rubrics.data}
         convention={me.noteNames}
-        submitLabel={isDraft ? 'Save draft' : `Save as version ${v.version + 1}`}
+        submitLabel={saveLabel(v)}
         onCancel={() => navigate(paths.requirementList.href(listId, v.version))}
         onSave={async (body) => {
-          const saved = isDraft
-            ? await update.mutateAsync({ id: v.id, body })
-            : await createVersion.mutateAsync({ listId, body });
+          const saved =
+            v.status === 'draft'
+              ? await update.mutateAsync({ id: v.id, body })
+              : await createVersion.mutateAsync({ listId, body });
           notify({
             severity: 'success',
             summary: `Version ${saved.version} was saved as a draft.`,
@@ -139,6 +125,6 @@ export function EditRequirementListPage() {
           navigate(paths.requirementList.href(listId, saved.version));
         }}
       />
-    </section>
+    </VersionEditorPage>
   );
 }

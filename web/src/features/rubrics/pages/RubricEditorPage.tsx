@@ -1,12 +1,11 @@
-import { useId } from 'react';
-import { Link, useNavigate, useParams } from 'react-router-dom';
+import { useNavigate, useParams } from 'react-router-dom';
 import type { RubricVersionView } from '@stavemark/shared';
 import { paths } from '@/config/paths';
 import '../rubrics.css';
 import { notify } from '@/lib/notify';
-import { Alert } from '@/components/Alert';
 import { ErrorMessage } from '@/components/ErrorMessage';
 import { PageLoading } from '@/components/PageLoading';
+import { saveLabel, VersionEditorPage } from '@/components/VersionedDocument';
 import { useCreateRubric } from '../api/create-rubric';
 import { useCreateRubricVersion } from '../api/create-rubric-version';
 import { useRubric } from '../api/get-rubric';
@@ -28,25 +27,20 @@ function fieldsOf(v: RubricVersionView): RubricFields {
 
 /** A new rubric. */
 export function NewRubricPage() {
-  const id = useId();
   const navigate = useNavigate();
   const create = useCreateRubric();
   return (
-    <section aria-labelledby={`${id}-title`}>
-      <p className="sm-breadcrumb">
-        <Link to={paths.rubrics.href()}>Rubrics</Link>
-      </p>
-      <div className="sm-page-header">
-        <div>
-          <h1 id={`${id}-title`}>New rubric</h1>
-          <p className="sm-page-subtitle">
-            Saved as a draft (version 1); publish it when it is ready for marking.
-          </p>
-        </div>
-      </div>
+    <VersionEditorPage
+      crumbs={[{ label: 'Rubrics', href: paths.rubrics.href() }]}
+      newPage={{
+        title: 'New rubric',
+        subtitle: 'Saved as a draft (version 1); publish it when it is ready for marking.',
+      }}
+      readyWhen="when it is ready"
+    >
       <RubricForm
         defaultValues={blankRubric()}
-        submitLabel="Save draft"
+        submitLabel={saveLabel()}
         onCancel={() => navigate(paths.rubrics.href())}
         onSave={async (body) => {
           const v = await create.mutateAsync(body);
@@ -54,7 +48,7 @@ export function NewRubricPage() {
           navigate(paths.rubric.href(v.rubricId, v.version));
         }}
       />
-    </section>
+    </VersionEditorPage>
   );
 }
 
@@ -63,7 +57,6 @@ export function NewRubricPage() {
  * is and the edit is saved as the next version, a draft.
  */
 export function EditRubricPage() {
-  const id = useId();
   const { rubricId = '' } = useParams();
   const navigate = useNavigate();
   const rubric = useRubric(rubricId);
@@ -71,41 +64,30 @@ export function EditRubricPage() {
   const update = useUpdateRubricVersion();
   const createVersion = useCreateRubricVersion();
 
-  if (rubric.isError) return <ErrorMessage error={rubric.error} what="this rubric" />;
-  if (latest.isError) return <ErrorMessage error={latest.error} what="this rubric" />;
+  const error = rubric.error ?? latest.error;
+  if (error) return <ErrorMessage error={error} what="this rubric" />;
   if (!latest.data) return <PageLoading />;
   const v = latest.data;
-  const isDraft = v.status === 'draft';
-  const back = () => navigate(paths.rubric.href(rubricId, v.version));
 
   return (
-    <section aria-labelledby={`${id}-title`}>
-      <p className="sm-breadcrumb">
-        <Link to={paths.rubrics.href()}>Rubrics</Link> /{' '}
-        <Link to={paths.rubric.href(rubricId)}>{v.name}</Link>
-      </p>
-      <div className="sm-page-header">
-        <div>
-          <h1 id={`${id}-title`}>
-            {isDraft ? `Edit draft version ${v.version}` : `New version of “${v.name}”`}
-          </h1>
-        </div>
-      </div>
-      {!isDraft && (
-        <Alert severity="info">
-          Version {v.version} is published and stays exactly as it is. Saving makes version{' '}
-          {v.version + 1}, a draft, which you publish when it is ready.
-        </Alert>
-      )}
+    <VersionEditorPage
+      crumbs={[
+        { label: 'Rubrics', href: paths.rubrics.href() },
+        { label: v.name, href: paths.rubric.href(rubricId) },
+      ]}
+      editing={v}
+      readyWhen="when it is ready"
+    >
       <RubricForm
         key={v.id}
         defaultValues={fieldsOf(v)}
-        submitLabel={isDraft ? 'Save draft' : `Save as version ${v.version + 1}`}
-        onCancel={back}
+        submitLabel={saveLabel(v)}
+        onCancel={() => navigate(paths.rubric.href(rubricId, v.version))}
         onSave={async (body) => {
-          const saved = isDraft
-            ? await update.mutateAsync({ id: v.id, body })
-            : await createVersion.mutateAsync({ rubricId, body });
+          const saved =
+            v.status === 'draft'
+              ? await update.mutateAsync({ id: v.id, body })
+              : await createVersion.mutateAsync({ rubricId, body });
           notify({
             severity: 'success',
             summary: `Version ${saved.version} was saved as a draft.`,
@@ -113,6 +95,6 @@ export function EditRubricPage() {
           navigate(paths.rubric.href(rubricId, saved.version));
         }}
       />
-    </section>
+    </VersionEditorPage>
   );
 }

@@ -1,5 +1,5 @@
 import { useId, useState } from 'react';
-import { Link, useNavigate } from 'react-router-dom';
+import { useNavigate } from 'react-router-dom';
 import { DataTable } from 'primereact/datatable';
 import { Column } from 'primereact/column';
 import { Button } from 'primereact/button';
@@ -17,42 +17,66 @@ import { activeRoles, useCurrentUser } from '@/lib/auth';
 import { notify } from '@/lib/notify';
 import { Alert } from '@/components/Alert';
 import { ErrorMessage } from '@/components/ErrorMessage';
+import {
+  AddFromStarterLibrary,
+  type UseAddStarterEntry,
+  type UseStarterEntries,
+} from '@/components/AddFromStarterLibrary';
+import { DocumentName, StatusFilter, VersionTag } from '@/components/VersionedDocument';
 import { useRubrics } from '../api/get-rubrics';
+import { useAdoptStarterRubric, useStarterRubrics } from '../api/starter-library';
 import { ImportRubricButton } from '../components/ImportRubricButton';
 import { KIND_LABELS } from '../components/labels';
-import { VersionTag } from '../components/VersionTag';
 
-const kindOptions = [
-  { label: 'Every kind', value: 'all' },
-  ...REQUEST_KINDS.map((k) => ({ label: KIND_LABELS[k], value: k })),
-];
-const statusOptions = [
-  { label: 'Any state', value: 'all' },
-  { label: 'Has a published version', value: 'published' },
-  { label: 'Latest is a draft', value: 'draft' },
-];
+const kindOptions = REQUEST_KINDS.map((k) => ({ label: KIND_LABELS[k], value: k }));
+
+const useStarterEntries: UseStarterEntries = (open) => {
+  const q = useStarterRubrics(open);
+  return {
+    entries: q.data?.map((r) => ({
+      key: r.key,
+      title: r.name,
+      details: `For ${r.kinds.map((k) => KIND_LABELS[k].toLowerCase()).join(', ')} · ${r.criteriaCount} criteria`,
+      openHref: r.adopted ? paths.rubric.href(r.adopted.id) : null,
+    })),
+    error: q.error,
+  };
+};
+
+const useAddStarterRubric: UseAddStarterEntry = () => {
+  const adopt = useAdoptStarterRubric();
+  return {
+    add: (key) =>
+      adopt.mutate(key, {
+        onSuccess: (v) =>
+          notify({ severity: 'success', summary: `“${v.name}” was added to your school.` }),
+      }),
+    adding: adopt.isPending ? (adopt.variables ?? null) : null,
+    error: adopt.error,
+    reset: adopt.reset,
+  };
+};
 
 export function RubricsPage() {
   const id = useId();
   const me = useCurrentUser();
   const navigate = useNavigate();
   const canEdit = activeRoles(me).some((r) => r === 'admin' || r === 'teacher');
-  const [kind, setKind] = useState<RequestKind | 'all'>('all');
-  const [status, setStatus] = useState<VersionStatus | 'all'>('all');
+  // null: no filter (the dropdown shows its placeholder).
+  const [kind, setKind] = useState<RequestKind | null>(null);
+  const [status, setStatus] = useState<VersionStatus | null>(null);
+
   const [importError, setImportError] = useState<{
     message: string;
     details: { path: string; message: string }[];
   } | null>(null);
   const rubrics = useRubrics({
-    ...(kind !== 'all' ? { kind } : {}),
-    ...(status !== 'all' ? { status } : {}),
+    ...(kind ? { kind } : {}),
+    ...(status ? { status } : {}),
   });
 
   const nameBody = (r: RubricSummary) => (
-    <span className="sm-cell-stack">
-      <Link to={paths.rubric.href(r.id)}>{r.name}</Link>
-      {r.starterKey && <small className="sm-muted">From the starter library</small>}
-    </span>
+    <DocumentName name={r.name} href={paths.rubric.href(r.id)} starter={r.starterKey !== null} />
   );
   const kindsBody = (r: RubricSummary) => (
     <span className="sm-tags">
@@ -81,6 +105,11 @@ export function RubricsPage() {
                 navigate(paths.rubric.href(v.rubricId));
               }}
               onError={(message, details) => setImportError({ message, details })}
+            />
+            <AddFromStarterLibrary
+              intro="Rubrics written for Stavemark. An added rubric is published as version 1 in your school; edit it like any other (an edit makes a new version)."
+              useEntries={useStarterEntries}
+              useAdd={useAddStarterRubric}
             />
             <Button
               type="button"
@@ -114,18 +143,12 @@ export function RubricsPage() {
             inputId={`${id}-kind`}
             value={kind}
             options={kindOptions}
-            onChange={(e) => setKind(e.value as RequestKind | 'all')}
+            placeholder="Every kind"
+            showClear
+            onChange={(e) => setKind((e.value as RequestKind | undefined) ?? null)}
           />
         </div>
-        <div className="sm-field">
-          <label htmlFor={`${id}-status`}>State</label>
-          <Dropdown
-            inputId={`${id}-status`}
-            value={status}
-            options={statusOptions}
-            onChange={(e) => setStatus(e.value as VersionStatus | 'all')}
-          />
-        </div>
+        <StatusFilter id={`${id}-status`} value={status} onChange={setStatus} />
       </div>
 
       {rubrics.isError && <ErrorMessage error={rubrics.error} what="the rubrics" />}

@@ -227,6 +227,17 @@ export function SittingPage() {
               )
             }
           />
+          {/* The agreement report: admins and the planner (permissions.edit) and the lead examiner (first on the panel). */}
+          {s.status !== 'draft' &&
+            (s.permissions.edit || (roles.includes('examiner') && s.examiners[0]?.displayName === me.displayName)) && (
+              <Button
+                type="button"
+                label="Agreement report"
+                icon="pi pi-chart-bar"
+                severity="secondary"
+                onClick={() => navigate(paths.sittingAgreement.href(s.id))}
+              />
+            )}
           {s.papers.length > 0 && (
             <Button
               type="button"
