@@ -27,6 +27,7 @@ import { AgreementModule } from './agreement/agreement.module.js';
 import { StandardisationModule } from './standardisation/standardisation.module.js';
 import { RecordingsModule } from './recordings/recordings.module.js';
 import { ReportsModule } from './reports/reports.module.js';
+import { ProgressModule } from './progress/progress.module.js';
 
 @Module({
   imports: [
@@ -62,6 +63,7 @@ import { ReportsModule } from './reports/reports.module.js';
     StandardisationModule,
     RecordingsModule,
     ReportsModule,
+    ProgressModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],
 })

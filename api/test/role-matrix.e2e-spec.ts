@@ -669,6 +669,15 @@ const REPORT_ROWS: Row[] = [
 ];
 
 let seq = 0;
+// ---- Progress and the attention list (issue 8) --------------------------------------------------
+// A student's year: the student, their teachers, admins; another teacher's student and another
+// organisation's 404; examiners are not a progress role (403). The attention list is for staff.
+const PROGRESS_ROWS: Row[] = [
+  { method: 'get', route: '/api/students/{studentId}/progress', path: () => `/api/students/${tc.ownStudentId}/progress`, expect: { none: 401, admin: 200, teacher: 200, examiner: 403, student: 200, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/students/{studentId}/progress', path: () => `/api/students/${tc.otherStudentId}/progress`, expect: { none: 401, admin: 200, teacher: 404, examiner: 403, student: 404, otherOrgAdmin: 404 } },
+  { method: 'get', route: '/api/attention', path: () => '/api/attention', expect: { none: 401, admin: 200, teacher: 200, examiner: 403, student: 403, otherOrgAdmin: 200 } },
+];
+
 const ROWS: Row[] = [
   { method: 'get', route: '/api/health', path: () => '/api/health', expect: all(200) },
   // Public: the signed URL is the permission; a link that was not signed by us is refused for everyone.
@@ -712,6 +721,7 @@ const ROWS: Row[] = [
   ...RECORDING_ROWS,
   ...RESULT_ROWS,
   ...REPORT_ROWS,
+  ...PROGRESS_ROWS,
 ];
 
 describe('role matrix', () => {

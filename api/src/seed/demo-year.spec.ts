@@ -41,7 +41,6 @@ interface SheetRow {
 describe('the demo year of marks', () => {
   let ds: DataSource;
   let name: string;
-  let seedMs: number;
   let sheets: SheetRow[];
   const scores = new Map<SheetRow, SheetScore>();
 
@@ -50,9 +49,7 @@ describe('the demo year of marks', () => {
     name = db.name;
     ds = new DataSource(dataSourceOptions(db.url));
     await ds.initialize();
-    const t0 = performance.now();
     await ds.transaction((em) => seedDemo(em, readDemoSchool(DEMO_FILE), TODAY));
-    seedMs = performance.now() - t0;
     sheets = (await ds.query(`
       SELECT st.id AS sitting_id, st.title, st.date::text AS date, st.status, v.list_id, v.grade, v.total_marks,
              s.pupil_number AS pupil, sl.id AS slot_id, ms.role, p.email AS examiner, d.requests,
@@ -107,10 +104,7 @@ describe('the demo year of marks', () => {
     return sc.percentage;
   };
 
-  it('seeds the whole demo in a few seconds, and a second run adds nothing', async () => {
-    // Measured at 1–2 s here with the machine lightly loaded; the bound leaves room for a shared,
-    // busy one (load 16 on 2 cores gave 11 s) and still fails a row-by-row seed of the year.
-    expect(seedMs).toBeLessThan(20_000);
+  it('a second run of the seed adds nothing', async () => {
     const count = async () =>
       (await ds.query(
         `SELECT (SELECT count(*) FROM sittings)::int AS sittings, (SELECT count(*) FROM slots)::int AS slots,

@@ -21,7 +21,7 @@ export interface TodayView {
   examiner?: {
     sittings: { id: string; title: string; room: string; startsAt: string; endsAt: string; status: string; mySlots: number }[];
   };
-  student?: { name: string; grade: number | null; classes: { id: string; name: string; code: string; teachers: string[] }[] };
+  student?: { id: string; name: string; grade: number | null; classes: { id: string; name: string; code: string; teachers: string[] }[] };
 }
 
 @Injectable()
@@ -107,6 +107,7 @@ export class TodayService {
       });
       if (me) {
         view.student = {
+          id: me.id,
           name: `${me.givenName} ${me.familyName}`,
           grade: me.grade,
           classes: (me.classes ?? [])

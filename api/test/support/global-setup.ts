@@ -1,10 +1,16 @@
+import { DataSource } from 'typeorm';
 import type { TestProject } from 'vitest/node';
+import { dataSourceOptions } from '../../src/database/data-source-options.js';
 import { migrate } from '../../src/database/migrate.js';
-import { dropDatabasesWithPrefix, TEST_DB_PREFIX, urlFor, withAdmin } from './test-db.js';
+import { readDemoSchool, seedDemo } from '../../src/seed/demo-school.js';
+import { DEMO_FILE } from '../../src/seed/seed.js';
+import { createFromTemplate, dropDatabasesWithPrefix, SEEDED_TEMPLATE_DAY, TEST_DB_PREFIX, urlFor, withAdmin } from './test-db.js';
 
 declare module 'vitest' {
   export interface ProvidedContext {
     templateDb: string;
+    /** The template with the demo school seeded for SEEDED_TEMPLATE_DAY (a year of marks included). */
+    seededTemplateDb: string;
     runPrefix: string;
   }
 }
@@ -18,6 +24,17 @@ export default async function setup(project: TestProject): Promise<() => Promise
   await migrate(urlFor(template));
   // A template must have no open connections when cloned: migrate() has closed its own.
   project.provide('templateDb', template);
+  // Seeding the demo once here, not once per test file, keeps the suite quick on a busy machine.
+  const seeded = `${runPrefix}seeded`;
+  await createFromTemplate(seeded, template);
+  const ds = new DataSource(dataSourceOptions(urlFor(seeded)));
+  await ds.initialize();
+  try {
+    await ds.transaction((em) => seedDemo(em, readDemoSchool(DEMO_FILE), SEEDED_TEMPLATE_DAY));
+  } finally {
+    await ds.destroy();
+  }
+  project.provide('seededTemplateDb', seeded);
   project.provide('runPrefix', runPrefix);
   return async () => {
     await dropDatabasesWithPrefix(runPrefix);

@@ -1,2 +1,3 @@
 export * from './trend.js';
 export * from './issues.js';
+export * from './attention.js';

@@ -16,3 +16,4 @@ export * from './agreement.js';
 export * from './standardisation.js';
 export * from './recordings.js';
 export * from './reports.js';
+export * from './progress.js';

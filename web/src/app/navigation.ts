@@ -22,6 +22,8 @@ export const navItems: readonly NavItem[] = [
   { to: paths.classes.href(), label: 'Classes', roles: paths.classes.roles },
   { to: paths.sittings.href(), label: 'Sittings', roles: paths.sittings.roles },
   { to: paths.results.href(), label: 'Results', roles: paths.results.roles },
+  { to: paths.attention.href(), label: 'Attention', roles: paths.attention.roles },
+  { to: paths.myProgress.href(), label: 'Progress', roles: paths.myProgress.roles },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles },
   { to: paths.marking.href(), label: 'Marking', roles: paths.marking.roles },
   { to: paths.myResults.href(), label: 'My results', roles: paths.myResults.roles },

@@ -238,6 +238,21 @@ export const routes: RouteObject[] = [
           [paths.results, () => import('@/features/results/pages/ResultsPage').then((m) => <m.ResultsPage />)],
           [paths.sittingResults, () => import('@/features/results/pages/SittingResultsPage').then((m) => <m.SittingResultsPage />)],
           [paths.classResults, () => import('@/features/results/pages/ClassResultsPage').then((m) => <m.ClassResultsPage />)],
+      // Progress and the attention list: own chunks (the chart library loads only here).
+      ...(
+        [
+          [
+            paths.myProgress,
+            () => import('@/features/progress/pages/ProgressPage').then((m) => <m.MyProgressPage />),
+          ],
+          [
+            paths.studentProgress,
+            () => import('@/features/progress/pages/ProgressPage').then((m) => <m.StudentProgressPage />),
+          ],
+          [
+            paths.attention,
+            () => import('@/features/progress/pages/AttentionPage').then((m) => <m.AttentionPage />),
+          ],
         ] as const
       ).map(([route, load]): RouteObject => ({
         path: route.path,

@@ -23,6 +23,16 @@ export const paths = {
     roles: ['admin', 'teacher'],
   },
   outbox: { path: '/outbox', href: () => '/outbox', roles: ['admin'] },
+  // Progress (issue 8): the student's own year, a student's year for their teachers and admins,
+  // and the teacher's attention list.
+  myProgress: { path: '/progress', href: () => '/progress', roles: ['student'] },
+  studentProgress: {
+    path: '/students/:studentId/progress',
+    href: (studentId: string, sittingId?: string) =>
+      `/students/${encodeURIComponent(studentId)}/progress${sittingId ? `#sitting-${sittingId}` : ''}`,
+    roles: ['admin', 'teacher', 'student'],
+  },
+  attention: { path: '/attention', href: () => '/attention', roles: ['admin', 'teacher'] },
   // Public pages behind e-mailed links (the API's invitations/link-tokens.ts names the same paths).
   accountWelcome: { path: '/account/welcome', href: () => '/account/welcome', roles: ROLES },
   resetPassword: { path: '/account/reset-password', href: () => '/account/reset-password', roles: ROLES },

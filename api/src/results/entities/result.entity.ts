@@ -28,6 +28,8 @@ import { Person } from '../../users/entities/person.entity.js';
 @Check('results_total', `total >= 0 AND out_of > 0 AND total <= out_of`)
 @Index(['organisationId', 'studentId', 'computedAt'])
 @Index(['sittingId'])
+// Progress (issue 8): each same-grade student's latest result in a list, for the percentile.
+@Index(['organisationId', 'listVersionId', 'studentId', 'computedAt'])
 export class Result implements OrgOwned {
   @PrimaryGeneratedColumn('uuid')
   id: string;

@@ -59,7 +59,11 @@ export function ClassDetailPage() {
     );
   const nameBody = (s: StudentRow) => (
     <>
-      {s.givenName} {s.familyName} {!s.active && <Tag severity="warning" value="Deactivated" />}
+      {/* The student's year of progress (issue 8). */}
+      <Link to={paths.studentProgress.href(s.id)}>
+        {s.givenName} {s.familyName}
+      </Link>{' '}
+      {!s.active && <Tag severity="warning" value="Deactivated" />}
       {s.email && (
         <>
           <br />

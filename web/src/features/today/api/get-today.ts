@@ -37,6 +37,8 @@ export interface TodayView {
     }[];
   };
   student?: {
+    /** The student record's id (for their progress page). */
+    id: string;
     name: string;
     grade: number | null;
     classes: { id: string; name: string; code: string; teachers: string[] }[];

@@ -1,3 +1,5 @@
+import { Link } from 'react-router-dom';
+import { paths } from '@/config/paths';
 import type { TodayView } from '../api/get-today';
 
 export function StudentToday({ data }: { data: NonNullable<TodayView['student']> }) {
@@ -6,7 +8,7 @@ export function StudentToday({ data }: { data: NonNullable<TodayView['student']>
       <h2 id="today-student">Your lessons</h2>
       <p>
         {data.name}
-        {data.grade !== null ? `, preparing grade ${data.grade}` : ''}.
+        {data.grade !== null ? `, preparing grade ${data.grade}` : ''}. <Link to={paths.myProgress.href()}>Your progress over the year</Link>
       </p>
       {data.classes.length === 0 ? (
         <p className="sm-muted">You are not in a class yet.</p>

@@ -7,6 +7,7 @@ import { AdminToday } from '../components/AdminToday';
 import { TeacherToday } from '../components/TeacherToday';
 import { ExaminerToday } from '../components/ExaminerToday';
 import { StudentToday } from '../components/StudentToday';
+import { AttentionPanel } from '@/features/progress/components/AttentionPanel';
 
 export function TodayPage() {
   const user = useCurrentUser();
@@ -33,6 +34,7 @@ export function TodayPage() {
         <>
           {today.data.admin && <AdminToday data={today.data.admin} />}
           {today.data.teacher && <TeacherToday data={today.data.teacher} />}
+          {today.data.teacher && <AttentionPanel />}
           {today.data.examiner && <ExaminerToday data={today.data.examiner} timeZone={today.data.timeZone} />}
           {today.data.student && <StudentToday data={today.data.student} />}
         </>
