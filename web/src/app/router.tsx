@@ -216,6 +216,13 @@ export const routes: RouteObject[] = [
             paths.result,
             () => import('@/features/release/pages/ResultPage').then((m) => <m.ResultPage />),
           ],
+        ] as const
+      ).map(([route, load]): RouteObject => ({
+        path: route.path,
+        lazy: async () => ({
+          element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
+        }),
+      })),
       // Agreement and standardisation (issue 7): the chart library loads with these pages only.
       ...(
         [
@@ -238,6 +245,13 @@ export const routes: RouteObject[] = [
           [paths.results, () => import('@/features/results/pages/ResultsPage').then((m) => <m.ResultsPage />)],
           [paths.sittingResults, () => import('@/features/results/pages/SittingResultsPage').then((m) => <m.SittingResultsPage />)],
           [paths.classResults, () => import('@/features/results/pages/ClassResultsPage').then((m) => <m.ClassResultsPage />)],
+        ] as const
+      ).map(([route, load]): RouteObject => ({
+        path: route.path,
+        lazy: async () => ({
+          element: <RequireAuth roles={route.roles}>{await load()}</RequireAuth>,
+        }),
+      })),
       // Progress and the attention list: own chunks (the chart library loads only here).
       ...(
         [
