@@ -44,6 +44,8 @@ import { ProgressModule } from './progress/progress.module.js';
     AuditModule,
     AuthModule,
     UsersModule,
+    // Before ResultsModule: its /results/classes must not be taken for /results/{id}.
+    ReportsModule,
     TodayModule,
     HealthModule,
     RubricsModule,
@@ -62,7 +64,6 @@ import { ProgressModule } from './progress/progress.module.js';
     AgreementModule,
     StandardisationModule,
     RecordingsModule,
-    ReportsModule,
     ProgressModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: AllExceptionsFilter }],

@@ -525,6 +525,8 @@ const AGREEMENT_ROWS: Row[] = [
   // Marks missing: 400 with each listed.
   { method: 'post', route: '/api/standardisation/exercises/{id}/attempt/submit', path: () => `/api/standardisation/exercises/${ac.attemptId}/attempt/submit`, body: () => ({ marks: [] }), expect: examinerOnly(400) },
   { method: 'get', route: '/api/standardisation/deviations', path: () => '/api/standardisation/deviations', expect: examinerOnly(200) },
+];
+
 // ---- Recordings (issue 6 §6) ---------------------------------------------------------------
 // A slot's recordings: the candidate's teachers, admins, the candidate, and the slot's examiners
 // while the sitting runs; another examiner's slot is not there (404). Uploads need a guardian's
@@ -575,7 +577,7 @@ interface ResultsCtx {
   foreignStudentId: string;
   examinerId: string;
 }
-const rc = {} as ResultsCtx;
+const resc = {} as ResultsCtx;
 
 async function prepareResults(): Promise<void> {
   const admin = { Authorization: `Bearer ${await tokenFor(EMAIL.admin)}` };
@@ -585,41 +587,41 @@ async function prepareResults(): Promise<void> {
   };
   type View = { id: string; slots: { id: string; studentId: string }[] };
   const sittings = ok(await api().get('/api/sittings').set(admin), 200) as { id: string; title: string }[];
-  rc.openSittingId = sittings.find((s) => s.title === 'Grade 3 mock — Wednesday Intermediates')!.id;
-  rc.openSlotId = (ok(await api().get(`/api/sittings/${rc.openSittingId}`).set(admin), 200) as View).slots[0]!.id;
+  resc.openSittingId = sittings.find((s) => s.title === 'Grade 3 mock — Wednesday Intermediates')!.id;
+  resc.openSlotId = (ok(await api().get(`/api/sittings/${resc.openSittingId}`).set(admin), 200) as View).slots[0]!.id;
   const student = async (pn: string) => (ok(await api().get(`/api/students?search=${pn}`).set(admin), 200) as { id: string; pupilNumber: string }[]).find((s) => s.pupilNumber === pn)!.id;
-  rc.ownStudentId = await student('KL1021');
-  rc.foreignStudentId = await student('KL1031');
+  resc.ownStudentId = await student('KL1021');
+  resc.foreignStudentId = await student('KL1031');
   const lists = ok(await api().get('/api/requirement-lists').set(admin), 200) as { starterKey: string | null; published: { id: string } | null }[];
   const g5 = lists.find((l) => l.starterKey === 'grade-5')!.published!.id;
   const ex = ok(await api().get('/api/examiners').set(admin), 200) as { id: string; email: string }[];
-  rc.examinerId = ex.find((e) => e.email === 'beatrix.oduya@demo.example')!.id;
+  resc.examinerId = ex.find((e) => e.email === 'beatrix.oduya@demo.example')!.id;
   const body = { title: 'Matrix results R1', date: '2030-01-11', room: 'Matrix R1', dayStart: '09:00', dayEnd: '12:00', papers: [{ listVersionId: g5 }], examinerIds: [ex.find((e) => e.email === EMAIL.examiner)!.id] };
   const created = ok(await api().post('/api/sittings').set(admin).send(body), 201) as View;
-  ok(await api().post(`/api/sittings/${created.id}/candidates`).set(admin).send({ studentIds: [rc.foreignStudentId], listVersionId: g5 }), 200);
+  ok(await api().post(`/api/sittings/${created.id}/candidates`).set(admin).send({ studentIds: [resc.foreignStudentId], listVersionId: g5 }), 200);
   const v = ok(await api().post(`/api/sittings/${created.id}/status`).set(admin).send({ status: 'scheduled' }), 200) as View;
-  rc.foreignSittingId = v.id;
-  rc.foreignSlotId = v.slots[0]!.id;
+  resc.foreignSittingId = v.id;
+  resc.foreignSlotId = v.slots[0]!.id;
 }
 
 const moderators = (ok: number): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: 403, otherOrgAdmin: 404 });
 const resultReaders = (ok: number): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: ok, otherOrgAdmin: 404 });
 const agreeBody = () => ({ marks: { 'mark:0:note_accuracy': 5 }, reason: 'Matrix check of an agreement.' });
 const RESULT_ROWS: Row[] = [
-  { method: 'get', route: '/api/sittings/{id}/moderation', path: () => `/api/sittings/${rc.openSittingId}/moderation`, expect: moderators(409) },
-  { method: 'get', route: '/api/sittings/{id}/moderation', path: () => `/api/sittings/${rc.foreignSittingId}/moderation`, expect: { ...moderators(409), teacher: 404 } },
-  { method: 'post', route: '/api/moderation/slots/{slotId}/agree', path: () => `/api/moderation/slots/${rc.openSlotId}/agree`, body: agreeBody, expect: moderators(409) },
-  { method: 'post', route: '/api/moderation/slots/{slotId}/agree', path: () => `/api/moderation/slots/${rc.foreignSlotId}/agree`, body: agreeBody, expect: { ...moderators(409), teacher: 404 } },
-  { method: 'post', route: '/api/moderation/slots/{slotId}/third-marker', path: () => `/api/moderation/slots/${rc.openSlotId}/third-marker`, body: () => ({ examinerId: rc.examinerId }), expect: moderators(409) },
-  { method: 'post', route: '/api/moderation/slots/{slotId}/third-marker', path: () => `/api/moderation/slots/${rc.foreignSlotId}/third-marker`, body: () => ({ examinerId: rc.examinerId }), expect: { ...moderators(409), teacher: 404 } },
-  { method: 'post', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${rc.openSittingId}/release`, body: () => ({}), expect: moderators(409) },
-  { method: 'post', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${rc.foreignSittingId}/release`, body: () => ({}), expect: { ...moderators(409), teacher: 404 } },
-  { method: 'get', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${rc.openSittingId}/release`, expect: moderators(200) },
-  { method: 'get', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${rc.foreignSittingId}/release`, expect: { ...moderators(200), teacher: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/moderation', path: () => `/api/sittings/${resc.openSittingId}/moderation`, expect: moderators(409) },
+  { method: 'get', route: '/api/sittings/{id}/moderation', path: () => `/api/sittings/${resc.foreignSittingId}/moderation`, expect: { ...moderators(409), teacher: 404 } },
+  { method: 'post', route: '/api/moderation/slots/{slotId}/agree', path: () => `/api/moderation/slots/${resc.openSlotId}/agree`, body: agreeBody, expect: moderators(409) },
+  { method: 'post', route: '/api/moderation/slots/{slotId}/agree', path: () => `/api/moderation/slots/${resc.foreignSlotId}/agree`, body: agreeBody, expect: { ...moderators(409), teacher: 404 } },
+  { method: 'post', route: '/api/moderation/slots/{slotId}/third-marker', path: () => `/api/moderation/slots/${resc.openSlotId}/third-marker`, body: () => ({ examinerId: resc.examinerId }), expect: moderators(409) },
+  { method: 'post', route: '/api/moderation/slots/{slotId}/third-marker', path: () => `/api/moderation/slots/${resc.foreignSlotId}/third-marker`, body: () => ({ examinerId: resc.examinerId }), expect: { ...moderators(409), teacher: 404 } },
+  { method: 'post', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${resc.openSittingId}/release`, body: () => ({}), expect: moderators(409) },
+  { method: 'post', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${resc.foreignSittingId}/release`, body: () => ({}), expect: { ...moderators(409), teacher: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${resc.openSittingId}/release`, expect: moderators(200) },
+  { method: 'get', route: '/api/sittings/{id}/release', path: () => `/api/sittings/${resc.foreignSittingId}/release`, expect: { ...moderators(200), teacher: 404 } },
   { method: 'get', route: '/api/me/results', path: () => '/api/me/results', expect: { none: 401, admin: 403, teacher: 403, examiner: 403, student: 200, otherOrgAdmin: 403 } },
   // The demo student's own results (none released yet: an empty list); another teacher's pupil: 404.
-  { method: 'get', route: '/api/students/{studentId}/results', path: () => `/api/students/${rc.ownStudentId}/results`, expect: resultReaders(200) },
-  { method: 'get', route: '/api/students/{studentId}/results', path: () => `/api/students/${rc.foreignStudentId}/results`, expect: { ...resultReaders(404), admin: 200 } },
+  { method: 'get', route: '/api/students/{studentId}/results', path: () => `/api/students/${resc.ownStudentId}/results`, expect: resultReaders(200) },
+  { method: 'get', route: '/api/students/{studentId}/results', path: () => `/api/students/${resc.foreignStudentId}/results`, expect: { ...resultReaders(404), admin: 200 } },
   // No result exists in a freshly seeded school yet: not there for anyone allowed to ask.
   { method: 'get', route: '/api/results/{id}', path: () => `/api/results/${randomUUID()}`, expect: resultReaders(404) },
   { method: 'get', route: '/api/results/{id}/report', path: () => `/api/results/${randomUUID()}/report`, expect: resultReaders(404) },
@@ -633,7 +635,7 @@ interface ReportCtx {
   /** Planned by an admin, with one candidate the demo teacher does not teach. */
   othersSittingId: string;
 }
-const rc = {} as ReportCtx;
+const repc = {} as ReportCtx;
 const staffOnly = (ok: number, otherOrg = 404): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: 403, otherOrgAdmin: otherOrg });
 const NO_RESULT = '00000000-0000-4000-8000-0000000000aa';
 
@@ -645,15 +647,15 @@ async function prepareReports(): Promise<void> {
   };
   const s = ok(await api().post('/api/sittings').set(admin).send(sittingDay('2030-03-04', 'Matrix R', { papers: [{ listVersionId: sc.g3 }] })), 201) as { id: string };
   ok(await api().post(`/api/sittings/${s.id}/candidates`).set(admin).send({ studentIds: [tc.otherStudentId] }), 200);
-  rc.othersSittingId = s.id;
+  repc.othersSittingId = s.id;
 }
 
 const REPORT_ROWS: Row[] = [
   // Today's sitting (the demo teacher planned it; marking still open, so no examiner sees results yet).
   { method: 'get', route: '/api/sittings/{id}/results', path: () => `/api/sittings/${sc.todayId}/results`, expect: { ...staffOnly(200), examiner: 404 } },
-  { method: 'get', route: '/api/sittings/{id}/results', path: () => `/api/sittings/${rc.othersSittingId}/results`, expect: { ...staffOnly(200), teacher: 404, examiner: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/results', path: () => `/api/sittings/${repc.othersSittingId}/results`, expect: { ...staffOnly(200), teacher: 404, examiner: 404 } },
   { method: 'get', route: '/api/sittings/{id}/results/export', path: () => `/api/sittings/${sc.todayId}/results/export?bom=true`, expect: { ...staffOnly(200), examiner: 404 } },
-  { method: 'get', route: '/api/sittings/{id}/results/export', path: () => `/api/sittings/${rc.othersSittingId}/results/export`, expect: { ...staffOnly(200), teacher: 404, examiner: 404 } },
+  { method: 'get', route: '/api/sittings/{id}/results/export', path: () => `/api/sittings/${repc.othersSittingId}/results/export`, expect: { ...staffOnly(200), teacher: 404, examiner: 404 } },
   { method: 'get', route: '/api/classes/{id}/results', path: () => `/api/classes/${cc.ownClassId}/results`, expect: staffOnly(200) },
   { method: 'get', route: '/api/classes/{id}/results', path: () => `/api/classes/${cc.otherTeachersClassId}/results`, expect: { ...staffOnly(200), teacher: 404 } },
   { method: 'get', route: '/api/classes/{id}/results/export', path: () => `/api/classes/${cc.ownClassId}/results/export`, expect: staffOnly(200) },

@@ -171,7 +171,7 @@ describe('a teacher moderates a flagged pair and releases results; the student r
     const note = 'Ellis, your scales are even and calm: next, the same ease in the arpeggios.';
     await page.getByLabel('Note for Ellis Northcott').fill(note);
     await page.getByRole('button', { name: 'Release 2 results' }).click();
-    await page.getByRole('alertdialog').getByRole('button', { name: 'Release' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Release', exact: true }).click();
     await page.getByText('2 results released.').waitFor();
     await screenshot(page, 'release-done');
     const teacherToken = await tokenFor(DEMO.teacher);
