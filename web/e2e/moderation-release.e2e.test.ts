@@ -1,43 +1,30 @@
 import { afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { DeskView, ReleaseListView } from '@stavemark/shared';
 import { BASE_URL, launch, screenshot, type Session } from './support/browser';
-import { DEMO, DEMO_PASSWORD, navLink, signIn } from './support/sign-in';
+import { ApiAs } from './support/api-as';
+import { DEMO, navLink, signIn } from './support/sign-in';
 
-/** The API with a sign-in of its own, for the fixture (not through the page). */
-async function tokenFor(email: string): Promise<string> {
-  const res = await fetch(`${BASE_URL}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
-  });
-  if (res.status !== 200) throw new Error(`fixture: sign-in as ${email} answered ${res.status}`);
-  return ((await res.json()) as { accessToken: string }).accessToken;
+/**
+ * The API as one demo person, for the fixture (not through the page). ApiAs renews through the
+ * refresh cookie: the browser suite's access tokens live 5 s, shorter than the fixture takes.
+ */
+async function tokenFor(email: string): Promise<ApiAs> {
+  return new ApiAs(email);
 }
 
 async function call<T>(
-  token: string,
+  token: ApiAs,
   method: string,
   path: string,
   body?: unknown,
   expected = 200,
 ): Promise<T> {
-  const res = await fetch(`${BASE_URL}/api${path}`, {
-    method,
-    headers: {
-      Authorization: `Bearer ${token}`,
-      ...(body ? { 'Content-Type': 'application/json' } : {}),
-    },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  const text = await res.text();
-  if (res.status !== expected)
-    throw new Error(`fixture: ${method} ${path} answered ${res.status}: ${text}`);
-  return (text ? JSON.parse(text) : null) as T;
+  return token.call<T>(method, path, body, expected);
 }
 
 /** Marks every criterion of the caller's sheet with mark(maxMark), records the outcome and submits. */
 async function markSlot(
-  token: string,
+  token: ApiAs,
   slotId: string,
   mark: (max: number) => number,
 ): Promise<void> {
