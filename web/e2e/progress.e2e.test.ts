@@ -33,7 +33,8 @@ describe('a student views their progress over a year', () => {
     const texts = await rows.allInnerTexts();
     expect(texts.filter((t) => /Absent/.test(t))).toHaveLength(1);
     const dates = texts.slice(1).map((t) => t.split('\t')[0]);
-    expect(new Set(dates).size).toBe(8);
+    // One row per sitting: no date twice.
+    expect(new Set(dates).size).toBe(dates.length);
     await expect(card.getByRole('button', { name: 'Show chart' }).getAttribute('aria-pressed')).resolves.toBe('true');
     await page.getByRole('note', { name: 'Health caution' }).first().waitFor();
     await card.scrollIntoViewIfNeeded();
