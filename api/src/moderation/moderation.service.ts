@@ -220,7 +220,7 @@ export class ModerationService {
         }
         if (comparison.total.flagged)
           reasons.push(
-            `Totals ${comparison.total.a} and ${comparison.total.b} differ by ${comparison.total.difference} marks (more than ${comparison.total.limit} marks, ${Math.round(DEFAULT_TOLERANCE.totalShare * 100)} % of ${totalMarks}).`,
+            `Totals ${comparison.total.a} and ${comparison.total.b} differ by ${comparison.total.difference} marks (more than ${Number(comparison.total.limit.toFixed(2))} marks, ${Math.round(DEFAULT_TOLERANCE.totalShare * 100)} % of ${totalMarks}).`,
           );
       }
       const result = results.find((r) => r.slotId === slot.id) ?? null;
