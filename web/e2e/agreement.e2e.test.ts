@@ -64,7 +64,14 @@ describe('the agreement report', () => {
     sittingId = created.id;
     const chosen = students.filter((x) => /^KL10/.test(x.pupilNumber)).sort((a, b) => a.pupilNumber.localeCompare(b.pupilNumber)).slice(0, 30);
     expect(chosen).toHaveLength(30);
-    await teacher.call('POST', `/sittings/${sittingId}/candidates`, { studentIds: chosen.map((c) => c.id) });
+    // All on the Grade 1 list, whatever grade each is recorded in (the API otherwise places each on
+    // the list of their grade, and this sitting has one).
+    const added = await teacher.call<{ added: number; skipped: unknown[] }>('POST', `/sittings/${sittingId}/candidates`, {
+      studentIds: chosen.map((c) => c.id),
+      listVersionId: g1,
+    });
+    expect(added.skipped).toEqual([]);
+    expect(added.added).toBe(30);
     await teacher.call('POST', `/sittings/${sittingId}/double-marking`, { share: 100 });
     await teacher.call('POST', `/sittings/${sittingId}/status`, { status: 'scheduled' });
     const open = await teacher.call<{ slots: { id: string }[] }>('POST', `/sittings/${sittingId}/status`, { status: 'in_progress' });
@@ -84,10 +91,7 @@ describe('the agreement report', () => {
     await s?.close();
   });
 
-  // Skipped at the end of session 2: after the merges the sitting's report counts 5 of the 30
-  // double-marked candidates this set-up marks (the term journey below and the in-process agreement
-  // tests pass). Open in issue 7 until the cause is found; do not delete.
-  it.skip('from the sitting: ICC with its form, interval and reading, kappa per pair, severity as a chart and a table, sources named', async () => {
+  it('from the sitting: ICC with its form, interval and reading, kappa per pair, severity as a chart and a table, sources named', async () => {
     const { page } = s;
     await signIn(page, DEMO.teacher);
     await page.goto(`${new URL(page.url()).origin}/sittings/${sittingId}`);

@@ -18,6 +18,8 @@ export function SeverityChart({ figures }: { figures: SeverityFigure[] }) {
   const extent = Math.max(2, ...shown.flatMap((f) => [Math.abs(f.lower!), Math.abs(f.upper!)])) * 1.15;
   const w = extent / 60;
   const labels = shown.map((f) => `${f.examiner.name}: ${signed(f.meanDifference!, 1)} (${signed(f.lower!, 1)} to ${signed(f.upper!, 1)})`);
+  // Two lines per row (name, then figures): one long line is cut at the canvas's left edge.
+  const tickLines = shown.map((f) => [f.examiner.name, `${signed(f.meanDifference!, 1)} (${signed(f.lower!, 1)} to ${signed(f.upper!, 1)})`]);
   const options: ChartOptions<'bar'> = {
     indexAxis: 'y',
     responsive: true,
@@ -48,7 +50,7 @@ export function SeverityChart({ figures }: { figures: SeverityFigure[] }) {
         aria-label={`Severity chart. ${labels.join('. ')}.`}
         options={options}
         data={{
-          labels,
+          labels: tickLines,
           datasets: [
             {
               label: '95 % interval',
