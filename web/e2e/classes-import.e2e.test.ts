@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { launch, screenshot, type Session } from './support/browser';
-import { DEMO, signIn } from './support/sign-in';
+import { DEMO, navLink, signIn } from './support/sign-in';
 
 // The journey of issue 4 on the demo school: a teacher imports a class list from seed-data/ that
 // has one bad row, reads the error, fixes the file, imports it and sees the class; the invitation
@@ -83,10 +83,7 @@ describe('a teacher imports a class list', () => {
   it('the invitation appears in the Outbox, and its link sets a password that signs in', async () => {
     const { page } = s;
     await signIn(page, DEMO.admin);
-    await page
-      .getByRole('navigation', { name: 'Main' })
-      .getByRole('link', { name: 'Outbox' })
-      .click();
+    await navLink(page, 'Outbox').click();
     await page.getByRole('heading', { name: 'Outbox', level: 1 }).waitFor();
     const invite = page
       .getByRole('row')

@@ -39,14 +39,25 @@ export async function signIn(
   return (await response.json()) as AuthSession;
 }
 
+/** Every link of the main navigation bar, those inside its closed menus too, in order. */
 export async function mainNavLinks(page: Page): Promise<string[]> {
-  const links = page.getByRole('navigation', { name: 'Main' }).getByRole('link');
+  const links = page.getByRole('navigation', { name: 'Main' }).getByRole('link', { includeHidden: true });
   return (await links.allTextContents()).map((t) => t.trim());
 }
 
-/** A link of the main navigation bar (pages may link to the same place in other words). */
+/**
+ * A link of the main navigation bar (pages may link to the same place in other words). `click`
+ * first opens the bar's menu that holds it, as a person would.
+ */
 export function navLink(page: Page, label: string) {
-  return page
-    .getByRole('navigation', { name: 'Main' })
-    .getByRole('link', { name: label, exact: true });
+  const nav = page.getByRole('navigation', { name: 'Main' });
+  const link = nav.getByRole('link', { name: label, exact: true, includeHidden: true });
+  return {
+    link,
+    async click() {
+      const group = nav.locator('li.sm-bar-group').filter({ has: link });
+      if ((await group.count()) > 0 && !(await link.isVisible())) await group.getByRole('button').click();
+      await link.click();
+    },
+  };
 }

@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { screen, within } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import type { Role } from '@stavemark/shared';
 import { renderApp } from '@/test/render';
 import { json, mockApi } from '@/test/fetch-mock';
 import { makeSession, makeUser, ORG_ID, OTHER_ORG_ID } from '@/test/factories';
-import { navItemsFor } from './navigation';
+import { navEntriesFor, navItemsFor } from './navigation';
 
 function todayFor(roles: Role[]) {
   return {
@@ -26,8 +26,9 @@ function todayFor(roles: Role[]) {
 
 function navLinks() {
   const nav = screen.getByRole('navigation', { name: 'Main' });
+  // Those inside the bar's closed menus too, in order.
   return within(nav)
-    .getAllByRole('link')
+    .getAllByRole('link', { hidden: true })
     .map((a) => a.textContent);
 }
 
@@ -47,6 +48,41 @@ describe('navigation per role', () => {
     expect(links[0]).toBe('Today');
     expect(links.includes('People')).toBe(people);
     expect(links).toEqual(navItemsFor([role]).map((i) => i.label));
+  });
+
+  it('groups the administrator\'s rarer pages into menus of the bar that open, close on Escape and read as current', async () => {
+    mockApi({ 'GET /api/today': () => json(200, todayFor(['admin'])) });
+    renderApp('/', makeSession(makeUser(['admin'])));
+    await screen.findByRole('heading', { name: 'Today' });
+    const nav = screen.getByRole('navigation', { name: 'Main' });
+    const menus = within(nav).getAllByRole('button').map((b) => b.textContent);
+    expect(menus).toEqual(['Syllabus', 'Marking quality', 'School']);
+    // Closed, a menu's links are out of the way (and of the accessibility tree).
+    expect(within(nav).queryByRole('link', { name: 'Outbox' })).toBeNull();
+    const user = userEvent.setup();
+    const school = within(nav).getByRole('button', { name: 'School' });
+    await user.click(school);
+    expect(school).toHaveAttribute('aria-expanded', 'true');
+    expect(within(nav).getByRole('link', { name: 'Outbox' })).toBeVisible();
+    await user.keyboard('{Escape}');
+    expect(school).toHaveAttribute('aria-expanded', 'false');
+    expect(school).toHaveFocus();
+    await user.click(school);
+    await user.click(within(nav).getByRole('link', { name: 'Recordings' }));
+    expect(school).toHaveAttribute('aria-expanded', 'false');
+    // Current once the page has loaded (the routes load lazily).
+    await waitFor(() => expect(school).toHaveClass('active'));
+  });
+
+  it('shows a menu with one page for the role as that page\'s link, and no menu for a student', () => {
+    const kinds = (roles: Role[]) => navEntriesFor(roles).map((e) => (e.kind === 'group' ? `[${e.label}]` : e.item.label));
+    expect(kinds(['student'])).toEqual(navItemsFor(['student']).map((i) => i.label));
+    expect(kinds(['examiner'])).toContain('[Marking quality]');
+    // Every page of the table is reachable: each item is a link or inside exactly one menu.
+    for (const role of ['admin', 'teacher', 'examiner', 'student'] as Role[]) {
+      const flat = navEntriesFor([role]).flatMap((e) => (e.kind === 'group' ? e.items : [e.item]));
+      expect(flat).toEqual(navItemsFor([role]));
+    }
   });
 
   it('offers People whenever admin is among the roles', () => {

@@ -3,7 +3,8 @@ import { Button } from 'primereact/button';
 import { activeMembership, activeRoles, useCurrentUser } from '@/lib/auth';
 import { roleLabel } from '@/lib/format';
 import { useLogout } from '@/features/auth/api/logout';
-import { navItemsFor } from '../navigation';
+import { navEntriesFor } from '../navigation';
+import { NavMenu } from './NavMenu';
 import { OrganisationSwitcher } from './OrganisationSwitcher';
 
 export function AppLayout() {
@@ -21,25 +22,29 @@ export function AppLayout() {
         <span className="sm-bar-wordmark">Stavemark</span>
         <nav aria-label="Main" className="sm-bar-nav">
           <ul>
-            {navItemsFor(roles).map((item) => (
-              <li key={item.to}>
-                <NavLink to={item.to} end={item.end ?? false}>
-                  {item.label}
-                </NavLink>
-              </li>
-            ))}
+            {navEntriesFor(roles).map((entry) =>
+              entry.kind === 'group' ? (
+                <NavMenu key={entry.label} label={entry.label} items={entry.items} />
+              ) : (
+                <li key={entry.item.to}>
+                  <NavLink to={entry.item.to} end={entry.item.end ?? false}>
+                    {entry.item.label}
+                  </NavLink>
+                </li>
+              ),
+            )}
           </ul>
         </nav>
         <div className="sm-bar-account">
-          {user.memberships.length > 1 ? (
-            <OrganisationSwitcher user={user} />
-          ) : (
-            <span className="sm-bar-org">{membership?.organisationName}</span>
-          )}
+          {user.memberships.length > 1 && <OrganisationSwitcher user={user} />}
           <span className="sm-bar-person">
             <span className="sm-visually-hidden">Signed in as </span>
             <span className="sm-bar-name">{user.displayName}</span>
-            <span className="sm-bar-roles">{roles.map(roleLabel).join(', ')}</span>
+            {/* The organisation under the name (one organisation: no switcher), so the bar keeps to one row. */}
+            <span className="sm-bar-meta">
+              <span className="sm-bar-roles">{roles.map(roleLabel).join(', ')}</span>
+              {user.memberships.length === 1 && <span className="sm-bar-org">{membership?.organisationName}</span>}
+            </span>
           </span>
           <Button
             type="button"

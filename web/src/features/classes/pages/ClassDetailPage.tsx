@@ -157,6 +157,13 @@ export function ClassDetailPage() {
           />
           <Button
             type="button"
+            label="Results"
+            icon="pi pi-table"
+            severity="secondary"
+            onClick={() => navigate(paths.classResults.href(c.id))}
+          />
+          <Button
+            type="button"
             label="Export CSV"
             icon="pi pi-download"
             severity="secondary"

@@ -253,6 +253,7 @@ export function SittingPage() {
           {(s.status === 'marking_closed' || s.status === 'published') &&
             (roles.includes('admin') || roles.includes('teacher')) && (
               <>
+                <Button type="button" label="Results" icon="pi pi-table" severity="secondary" onClick={() => navigate(paths.sittingResults.href(s.id))} />
                 <Button type="button" label="Moderation" icon="pi pi-clone" severity="secondary" onClick={() => navigate(paths.moderation.href(s.id))} />
                 <Button type="button" label="Release results" icon="pi pi-megaphone" severity="secondary" onClick={() => navigate(paths.release.href(s.id))} />
               </>
