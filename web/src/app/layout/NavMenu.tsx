@@ -15,7 +15,12 @@ export function NavMenu({ label, items }: { label: NavGroupLabel; items: readonl
   const { pathname } = useLocation();
   const current = items.some((i) => matchPath({ path: i.to, end: i.end ?? false }, pathname));
 
-  useEffect(() => setOpen(false), [pathname]);
+  // Another page (a link elsewhere, Back): closed. Adjusted during render, as React advises for state that follows a value.
+  const [shownFor, setShownFor] = useState(pathname);
+  if (shownFor !== pathname) {
+    setShownFor(pathname);
+    setOpen(false);
+  }
   useEffect(() => {
     if (!open) return;
     const away = (e: MouseEvent) => {
