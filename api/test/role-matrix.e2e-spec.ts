@@ -634,6 +634,10 @@ const RESULT_ROWS: Row[] = [
 interface ReportCtx {
   /** Planned by an admin, with one candidate the demo teacher does not teach. */
   othersSittingId: string;
+  /** The demo student's results from the seeded year (demo-year.ts): released, and one not yet released. */
+  releasedMarkedBy: string;
+  releasedNotMarkedBy: string;
+  unreleased: string;
 }
 const repc = {} as ReportCtx;
 const staffOnly = (ok: number, otherOrg = 404): Record<Caller, number> => ({ none: 401, admin: ok, teacher: ok, examiner: 403, student: 403, otherOrgAdmin: otherOrg });
@@ -648,6 +652,21 @@ async function prepareReports(): Promise<void> {
   const s = ok(await api().post('/api/sittings').set(admin).send(sittingDay('2030-03-04', 'Matrix R', { papers: [{ listVersionId: sc.g3 }] })), 201) as { id: string };
   ok(await api().post(`/api/sittings/${s.id}/candidates`).set(admin).send({ studentIds: [tc.otherStudentId] }), 200);
   repc.othersSittingId = s.id;
+  // Ellis's results, and whether the demo examiner (Priya) is on each sitting's panel: an examiner
+  // reads a mark sheet only of a slot they marked.
+  const ellis = (ok(await api().get('/api/students?search=KL1021').set(admin), 200) as { id: string }[])[0]!.id;
+  const results = ok(await api().get(`/api/students/${ellis}/results`).set(admin), 200) as { id: string; sittingId: string; releasedAt: string | null }[];
+  const priyaMarked = async (sittingId: string) => {
+    type Ref = { displayName: string } | null;
+    const v = ok(await api().get(`/api/sittings/${sittingId}`).set(admin), 200) as { slots: { studentId: string; examiner: Ref; secondExaminer: Ref }[] };
+    const slot = v.slots.find((x) => x.studentId === ellis)!;
+    return [slot.examiner, slot.secondExaminer].some((e) => e?.displayName === 'Priya Halvorsen');
+  };
+  const released = results.filter((r) => r.releasedAt !== null);
+  const marked = await Promise.all(released.map((r) => priyaMarked(r.sittingId)));
+  repc.releasedMarkedBy = released.find((_, i) => marked[i])!.id;
+  repc.releasedNotMarkedBy = released.find((_, i) => !marked[i])!.id;
+  repc.unreleased = results.find((r) => r.releasedAt === null)!.id;
 }
 
 const REPORT_ROWS: Row[] = [
@@ -668,6 +687,12 @@ const REPORT_ROWS: Row[] = [
   // A result that is not there (or not the caller's) answers 404; the mark sheet is for staff and examiners only.
   { method: 'get', route: '/api/results/{id}/mark-sheet', path: () => `/api/results/${NO_RESULT}/mark-sheet`, expect: { ...staffOnly(404), examiner: 404 } },
   { method: 'get', route: '/api/results/{id}/take-home', path: () => `/api/results/${NO_RESULT}/take-home`, expect: { ...staffOnly(404), student: 404 } },
+  // Real results: the examiner reads the sheet of a slot they marked only; the student never the
+  // examiner's sheet, but their own take-home report once released (not before).
+  { method: 'get', route: '/api/results/{id}/mark-sheet', path: () => `/api/results/${repc.releasedMarkedBy}/mark-sheet`, expect: { ...staffOnly(200), examiner: 200 } },
+  { method: 'get', route: '/api/results/{id}/mark-sheet', path: () => `/api/results/${repc.releasedNotMarkedBy}/mark-sheet`, expect: { ...staffOnly(200), examiner: 404 } },
+  { method: 'get', route: '/api/results/{id}/take-home', path: () => `/api/results/${repc.releasedMarkedBy}/take-home`, expect: { ...staffOnly(200), student: 200 } },
+  { method: 'get', route: '/api/results/{id}/take-home', path: () => `/api/results/${repc.unreleased}/take-home`, expect: { ...staffOnly(200), student: 404 } },
 ];
 
 let seq = 0;
