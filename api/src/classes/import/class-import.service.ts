@@ -577,7 +577,6 @@ export class ClassImportService {
     const newIds = new Map(plan.newStudents.map((n) => [n.pupilNumber!, randomUUID()]));
     const idOf = (key: StudentKey): string => ('id' in key ? key.id : newIds.get(key.pupilNumber)!);
     for (const c of createdClasses) plan.classIds.set(c.code!, c.id!);
-    const col = <T, V>(items: T[], f: (x: T) => V): V[] => items.map(f);
 
     step('Writing students');
     if (plan.newStudents.length) {
@@ -589,14 +588,14 @@ export class ClassImportService {
              AS u(id, membership_id, pupil_number, given_name, family_name, email, date_of_birth, grade)`,
         [
           org,
-          col(n, (r) => newIds.get(r.pupilNumber!)),
-          col(n, (r) => membershipByPupil.get(r.pupilNumber!) ?? null),
-          col(n, (r) => r.pupilNumber),
-          col(n, (r) => r.givenName),
-          col(n, (r) => r.familyName),
-          col(n, (r) => r.studentEmail),
-          col(n, (r) => r.dateOfBirth),
-          col(n, (r) => r.grade),
+          n.map((r) => newIds.get(r.pupilNumber!)),
+          n.map((r) => membershipByPupil.get(r.pupilNumber!) ?? null),
+          n.map((r) => r.pupilNumber),
+          n.map((r) => r.givenName),
+          n.map((r) => r.familyName),
+          n.map((r) => r.studentEmail),
+          n.map((r) => r.dateOfBirth),
+          n.map((r) => r.grade),
         ],
       );
     }
@@ -611,12 +610,12 @@ export class ClassImportService {
           WHERE s.id = u.id AND s.organisation_id = $1`,
         [
           org,
-          col(u, (x) => x.student.id),
-          col(u, (x) => x.row.givenName),
-          col(u, (x) => x.row.familyName),
-          col(u, (x) => x.row.studentEmail ?? x.student.email),
-          col(u, (x) => x.row.dateOfBirth),
-          col(u, (x) => x.row.grade ?? x.student.grade),
+          u.map((x) => x.student.id),
+          u.map((x) => x.row.givenName),
+          u.map((x) => x.row.familyName),
+          u.map((x) => x.row.studentEmail ?? x.student.email),
+          u.map((x) => x.row.dateOfBirth),
+          u.map((x) => x.row.grade ?? x.student.grade),
         ],
       );
     }
@@ -626,7 +625,7 @@ export class ClassImportService {
       await em.query(
         `INSERT INTO guardians (organisation_id, student_id, name, email)
          SELECT $1, u.student_id, u.name, u.email FROM unnest($2::uuid[], $3::text[], $4::text[]) AS u(student_id, name, email)`,
-        [org, col(g, (x) => idOf(x.key)), col(g, (x) => x.name), col(g, (x) => x.email)],
+        [org, g.map((x) => idOf(x.key)), g.map((x) => x.name), g.map((x) => x.email)],
       );
     }
     if (plan.classJoins.length) {
@@ -634,7 +633,7 @@ export class ClassImportService {
       await em.query(
         `INSERT INTO class_members (class_id, student_id) SELECT * FROM unnest($1::uuid[], $2::uuid[])
          ON CONFLICT DO NOTHING`,
-        [col(j, (x) => plan.classIds.get(x.classCode)!), col(j, (x) => idOf(x.key))],
+        [j.map((x) => plan.classIds.get(x.classCode)!), j.map((x) => idOf(x.key))],
       );
     }
     if (plan.guardianRenames.length) {
