@@ -261,6 +261,67 @@ describe('class-list import, guardians and the e-mails they cause', () => {
     expect((await t.http().get('/api/dev/outbox').set(auth(teacher))).status).toBe(403);
   });
 
+  it('an update writes what the report says; a blank optional cell keeps what is stored', async () => {
+    const first = `${HEADER}\nKL9001,Rhea,Tamsin,rhea.tamsin@pupils.example,2012-04-02,Ola Tamsin,ola.tamsin@family.example,3,UPD-A\n`;
+    expect((await upload(admin, first, false)).body.counts).toMatchObject({ new: 1 });
+    const second = `${HEADER}\nKL9001,Rhiannon,Tamsin,,2012-04-03,Ola Tamsin-Reed,ola.tamsin@family.example,,UPD-B\n`;
+    const preview = await upload(admin, second, true);
+    expect(preview.body.rows[0]).toMatchObject({
+      line: 2,
+      status: 'updated',
+      changes: [
+        'Given name: Rhea → Rhiannon',
+        'Date of birth: 2012-04-02 → 2012-04-03',
+        'Guardian name: Ola Tamsin → Ola Tamsin-Reed',
+        'Joins class UPD-B',
+      ],
+    });
+    expect((await upload(admin, second, false)).body).toMatchObject({
+      applied: true,
+      counts: { new: 0, updated: 1, unchanged: 0, error: 0 },
+    });
+    const mailBefore = await count('outbound_mail');
+    const third = `${HEADER}\nKL9001,Rhiannon,Tamsin,,2012-04-03,Kit Tamsin,kit.tamsin@family.example,4,UPD-B\n`;
+    expect((await upload(admin, third, false)).body).toMatchObject({
+      counts: { updated: 1 },
+      guardianNotices: 1,
+      invitations: 0,
+    });
+    // The notice to the new guardian of a minor (14 on the import date) is the only new mail.
+    expect((await count('outbound_mail')) - mailBefore).toBe(1);
+
+    const [student] = (await t.db.query(
+      `SELECT id, given_name, family_name, email, date_of_birth::text AS dob, grade FROM students WHERE pupil_number = 'KL9001'`,
+    )) as { id: string; given_name: string; email: string; dob: string; grade: number }[];
+    expect(student).toMatchObject({
+      given_name: 'Rhiannon',
+      family_name: 'Tamsin',
+      email: 'rhea.tamsin@pupils.example',
+      dob: '2012-04-03',
+      grade: 4,
+    });
+    const guardians = (await t.db.query(
+      `SELECT name, email FROM guardians WHERE student_id = $1 ORDER BY email`,
+      [student!.id],
+    )) as { name: string; email: string }[];
+    expect(guardians).toEqual([
+      { name: 'Kit Tamsin', email: 'kit.tamsin@family.example' },
+      { name: 'Ola Tamsin-Reed', email: 'ola.tamsin@family.example' },
+    ]);
+    const classes = (await t.db.query(
+      `SELECT c.code FROM class_members m JOIN classes c ON c.id = m.class_id WHERE m.student_id = $1 ORDER BY c.code`,
+      [student!.id],
+    )) as { code: string }[];
+    expect(classes.map((c) => c.code)).toEqual(['UPD-A', 'UPD-B']);
+    // Importing the same file again changes nothing.
+    expect((await upload(admin, third, true)).body.counts).toEqual({
+      new: 0,
+      updated: 0,
+      unchanged: 1,
+      error: 0,
+    });
+  });
+
   it('export, then import the export: nothing changes', async () => {
     const list = await t.http().get('/api/classes').set(auth(teacher));
     for (const code of ['MON-FND', 'TUE-BEG']) {
@@ -346,8 +407,12 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       'Cy Ash is 17 on 2026-12-01: a student under 18 needs a guardian e-mail.',
     ]);
     // The same student e-mail twice (compared without case).
-    expect(errs(10)).toEqual(['Student e-mail twin@pupils.example is in the file more than once (also line 11).']);
-    expect(errs(11)).toEqual(['Student e-mail twin@pupils.example is in the file more than once (also line 10).']);
+    expect(errs(10)).toEqual([
+      'Student e-mail twin@pupils.example is in the file more than once (also line 11).',
+    ]);
+    expect(errs(11)).toEqual([
+      'Student e-mail twin@pupils.example is in the file more than once (also line 10).',
+    ]);
     expect(res.body.counts.error).toBe(10);
   });
 
@@ -392,7 +457,10 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       .field('progressId', progressId)
       .attach('file', Buffer.from(csv), 'progress.csv');
     expect(res.status, JSON.stringify(res.body)).toBe(200);
-    const seen = await t.http().get(`/api/classes/import/progress/${progressId}`).set(auth(teacher));
+    const seen = await t
+      .http()
+      .get(`/api/classes/import/progress/${progressId}`)
+      .set(auth(teacher));
     expect(seen.status).toBe(200);
     expect(seen.body).toEqual({ phase: 'done', done: 7, total: 7, step: 'Imported' });
     // Another person, even an administrator of the same school, does not see it.
@@ -400,7 +468,8 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       (await t.http().get(`/api/classes/import/progress/${progressId}`).set(auth(admin))).status,
     ).toBe(404);
     expect(
-      (await t.http().get(`/api/classes/import/progress/${randomUUID()}`).set(auth(teacher))).status,
+      (await t.http().get(`/api/classes/import/progress/${randomUUID()}`).set(auth(teacher)))
+        .status,
     ).toBe(404);
   });
 
@@ -441,7 +510,11 @@ describe('class-list import, guardians and the e-mails they cause', () => {
       .set(auth(teacher))
       .attach('file', Buffer.from(HEADER), 'a.csv');
     expect(badQuery.status).toBe(400);
-    const good = await upload(teacher, `${HEADER}\nKL9001,Ada,Tmpfile,,2001-01-01,,,,TMP-1\n`, true);
+    const good = await upload(
+      teacher,
+      `${HEADER}\nKL9001,Ada,Tmpfile,,2001-01-01,,,,TMP-1\n`,
+      true,
+    );
     expect(good.status, JSON.stringify(good.body)).toBe(200);
     expect(uploadDirs().filter((d) => !leftBefore.includes(d))).toEqual([]);
   });

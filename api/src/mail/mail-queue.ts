@@ -1,13 +1,25 @@
-import { Inject, Injectable, Logger, type OnApplicationBootstrap, type OnApplicationShutdown } from '@nestjs/common';
+import {
+  Inject,
+  Injectable,
+  Logger,
+  type OnApplicationBootstrap,
+  type OnApplicationShutdown,
+} from '@nestjs/common';
 import PgBoss from 'pg-boss';
 import type { EntityManager } from 'typeorm';
 import { ENV } from '../config/config.module.js';
 import type { Env } from '../config/env.js';
 
 export const MAIL_QUEUE = 'outbound-mail';
-export interface MailJob {
-  mailId: string;
-}
+/**
+ * Mails per job: an import of 5,000 rows queues ~105 jobs rather than ~5,250, and a retry (with
+ * back-off) of a job resends only its mails not yet sent.
+ */
+export const MAILS_PER_JOB = 50;
+/** `mailIds` since mails were batched; `mailId` is a job queued before that. */
+export type MailJob = { mailIds: string[] } | { mailId: string };
+export const mailIdsOf = (job: MailJob): string[] =>
+  'mailIds' in job ? job.mailIds : [job.mailId];
 export type MailJobHandler = (jobs: PgBoss.JobWithMetadata<MailJob>[]) => Promise<void>;
 
 /** pg-boss runs SQL through this: inside our transaction, so a rolled-back change queues nothing. */
@@ -52,7 +64,9 @@ export class MailQueue implements OnApplicationBootstrap, OnApplicationShutdown 
    */
   async onApplicationBootstrap(): Promise<void> {
     await this.ensureStarted().catch((err: unknown) => {
-      this.logger.warn(`job queue not started yet: ${err instanceof Error ? err.message : String(err)}`);
+      this.logger.warn(
+        `job queue not started yet: ${err instanceof Error ? err.message : String(err)}`,
+      );
     });
   }
 
@@ -107,15 +121,15 @@ export class MailQueue implements OnApplicationBootstrap, OnApplicationShutdown 
     attempt();
   }
 
-  /** Queues one job per mail in the caller's transaction. */
+  /** Queues the mails in jobs of up to MAILS_PER_JOB, in the caller's transaction. */
   async enqueue(em: EntityManager, mailIds: string[]): Promise<void> {
     if (mailIds.length === 0) return;
     const db = inTransaction(em);
     await this.ensureStarted();
-    await this.boss.insert(
-      mailIds.map((mailId) => ({ name: MAIL_QUEUE, data: { mailId } })),
-      { db },
-    );
+    const jobs: { name: string; data: MailJob }[] = [];
+    for (let i = 0; i < mailIds.length; i += MAILS_PER_JOB)
+      jobs.push({ name: MAIL_QUEUE, data: { mailIds: mailIds.slice(i, i + MAILS_PER_JOB) } });
+    await this.boss.insert(jobs, { db });
   }
 
   /** After commit: wake the worker instead of waiting for its next poll. */

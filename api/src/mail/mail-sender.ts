@@ -14,7 +14,7 @@ import {
   newLinkToken,
 } from '../invitations/link-tokens.js';
 import { OutboundMail } from './entities/outbound-mail.entity.js';
-import { MailQueue, type MailJob } from './mail-queue.js';
+import { mailIdsOf, MailQueue, type MailJob } from './mail-queue.js';
 import { lifetimeWords, renderMail, type LinkFacts, type MailData } from './templates.js';
 
 /** Sends queued mail over SMTP (nodemailer): the local catcher in development and tests, any server in production. */
@@ -45,17 +45,24 @@ export class MailSender implements OnApplicationBootstrap {
     this.queue.startWorker((jobs) => this.process(jobs));
   }
 
-  /** One batch from the queue; each job succeeds or fails on its own (pg-boss retries the failed ones). */
+  /**
+   * One batch from the queue. Every mail of a job is tried; a job with a failed mail fails as a
+   * whole, so pg-boss retries it with back-off, and the retry skips the mails already sent.
+   */
   async process(jobs: PgBoss.JobWithMetadata<MailJob>[]): Promise<void> {
     for (const job of jobs) {
-      try {
-        await this.sendOne(job.data.mailId, job.retryCount >= job.retryLimit);
-      } catch (err) {
-        this.logger.warn(
-          `mail ${job.data.mailId}: attempt ${job.retryCount + 1} failed: ${(err as Error).message}`,
-        );
-        await this.queue.fail(job.id, err);
+      let failure: unknown = null;
+      for (const mailId of mailIdsOf(job.data)) {
+        try {
+          await this.sendOne(mailId, job.retryCount >= job.retryLimit);
+        } catch (err) {
+          this.logger.warn(
+            `mail ${mailId}: attempt ${job.retryCount + 1} failed: ${(err as Error).message}`,
+          );
+          failure ??= err;
+        }
       }
+      if (failure) await this.queue.fail(job.id, failure);
     }
   }
 

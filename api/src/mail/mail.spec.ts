@@ -93,6 +93,31 @@ describe('outbound mail: written with the change, sent after commit, retried wit
     expect(jobs[0]!.n).toBe(0);
   });
 
+  it('queues mails 50 to a job, every mail in exactly one job', async () => {
+    const mail = t.app.get(MailService);
+    const mails = Array.from({ length: 120 }, (_, i) => ({
+      organisationId: null,
+      kind: 'password_reset' as const,
+      toAddress: `batch${i}@demo.example`,
+      toName: `Batch ${i}`,
+      data: { displayName: `Batch ${i}` },
+      accountTokenId: null,
+    }));
+    // Looked at inside the transaction, then rolled back, so the worker never sees them.
+    const seen = await t.db
+      .transaction(async (em) => {
+        const ids = await mail.enqueue(em, mails);
+        const jobs = (await em.query(
+          `SELECT data->'mailIds' AS ids FROM pgboss.job WHERE name = 'outbound-mail' AND data->'mailIds' ?| $1`,
+          [ids],
+        )) as { ids: string[] }[];
+        throw Object.assign(new Error('rollback'), { ids, jobs });
+      })
+      .catch((err: { ids: string[]; jobs: { ids: string[] }[] }) => err);
+    expect(seen.jobs.map((j) => j.ids.length).sort((a, b) => a - b)).toEqual([20, 50, 50]);
+    expect(seen.jobs.flatMap((j) => j.ids).sort()).toEqual([...seen.ids].sort());
+  });
+
   it('refuses to queue outside a transaction', async () => {
     await expect(
       t.app.get(MailQueue).enqueue(t.db.manager, ['00000000-0000-4000-8000-000000000000']),
@@ -135,7 +160,7 @@ describe('outbound mail: written with the change, sent after commit, retried wit
     const jobOf = async () =>
       (
         (await t.db.query(
-          `SELECT state, retry_count, start_after > now() AS later FROM pgboss.job WHERE data->>'mailId' = $1`,
+          `SELECT state, retry_count, start_after > now() AS later FROM pgboss.job WHERE data->'mailIds' ? $1`,
           [id],
         )) as {
           state: string;

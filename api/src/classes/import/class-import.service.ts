@@ -52,6 +52,8 @@ type StudentKey = { id: string } | { pupilNumber: string };
 interface Plan {
   report: Omit<ImportReport, 'dryRun' | 'applied' | 'fileName'>;
   newClassCodes: string[];
+  /** Ids of the classes the rows name, by code (new ones added when created). */
+  classIds: Map<string, string>;
   newStudents: CheckedRow[];
   updates: { student: KnownStudent; row: CheckedRow }[];
   newGuardians: { key: StudentKey; name: string; email: string }[];
@@ -143,7 +145,12 @@ export class ClassImportService {
         await this.apply(em, caller, plan, fileName, tell);
         return { ...full, applied: true };
       });
-      tell({ phase: 'done', done: WRITE_STEPS.length, total: WRITE_STEPS.length, step: 'Imported' });
+      tell({
+        phase: 'done',
+        done: WRITE_STEPS.length,
+        total: WRITE_STEPS.length,
+        step: 'Imported',
+      });
       this.mail.afterCommit();
       return report;
     } catch (err) {
@@ -228,10 +235,14 @@ export class ClassImportService {
       pupilNumbers.length || studentEmails.length
         ? await scoped.students
             .qb('s')
-            .andWhere('(s.pupilNumber = ANY(:pns) OR s.email = ANY(:emails))', {
-              pns: pupilNumbers,
-              emails: studentEmails,
-            })
+            // IN (SELECT unnest(…)) is a hashed lookup; `= ANY(array)` scans the array per row.
+            .andWhere(
+              '(s.pupilNumber IN (SELECT unnest(CAST(:pns AS text[]))) OR s.email IN (SELECT unnest(CAST(:emails AS text[]))))',
+              {
+                pns: pupilNumbers,
+                emails: studentEmails,
+              },
+            )
             .getMany()
         : [];
     const known = new Map<string, KnownStudent>();
@@ -301,6 +312,7 @@ export class ClassImportService {
         importDate,
       },
       newClassCodes: [],
+      classIds: new Map(classRows.map((c) => [c.code, c.id])),
       newStudents: [],
       updates: [],
       newGuardians: [],
@@ -498,9 +510,10 @@ export class ClassImportService {
     step('Creating new classes');
     const orgName = (await em.findOneByOrFail(Organisation, { id: org })).name;
 
-    // New classes, taught by the importer when they teach (class places join classes by code).
+    // New classes, taught by the importer when they teach.
+    let createdClasses: Record<string, string>[] = [];
     if (plan.newClassCodes.length) {
-      const created = await bulkInsert(
+      createdClasses = await bulkInsert(
         em,
         'classes',
         [
@@ -514,7 +527,7 @@ export class ClassImportService {
       if (caller.roles.includes('teacher')) {
         await em.query(
           `INSERT INTO class_teachers (class_id, membership_id) SELECT unnest($1::uuid[]), $2`,
-          [created.map((c) => c.id), caller.membershipId],
+          [createdClasses.map((c) => c.id), caller.membershipId],
         );
       }
     }
@@ -558,87 +571,70 @@ export class ClassImportService {
     }
 
     step('Preparing the rows');
-    // The rows to write, staged once in a temporary table (one parameter: the rows as JSON), then
-    // written with a few set-based statements that join it, instead of one array per column per
-    // table sent back and forth. New students get their ids here, so nothing is mapped back.
-    // One staged row per thing to write: a new or updated student, a new guardian, a class place.
+    // New students get their ids here, so nothing is mapped back from RETURNING; class places
+    // join by the ids of the classes found or just created. Each table is then one statement of
+    // column arrays through unnest() (a few parameters, however many rows).
     const newIds = new Map(plan.newStudents.map((n) => [n.pupilNumber!, randomUUID()]));
-    const idOf = (key: StudentKey): string =>
-      'id' in key ? key.id : newIds.get(key.pupilNumber)!;
-    const staged: Record<string, unknown>[] = [
-      ...plan.newStudents.map((n) => ({
-        kind: 'new',
-        student_id: newIds.get(n.pupilNumber!),
-        membership_id: membershipByPupil.get(n.pupilNumber!) ?? null,
-        pupil_number: n.pupilNumber,
-        given_name: n.givenName,
-        family_name: n.familyName,
-        email: n.studentEmail,
-        date_of_birth: n.dateOfBirth,
-        grade: n.grade,
-      })),
-      // A blank optional cell keeps what is stored.
-      ...plan.updates.map(({ student: st, row: r }) => ({
-        kind: 'update',
-        student_id: st.id,
-        given_name: r.givenName,
-        family_name: r.familyName,
-        email: r.studentEmail ?? st.email,
-        date_of_birth: r.dateOfBirth,
-        grade: r.grade ?? st.grade,
-      })),
-      ...plan.newGuardians.map((g) => ({
-        kind: 'guardian',
-        student_id: idOf(g.key),
-        guardian_name: g.name,
-        guardian_email: g.email,
-      })),
-      ...plan.classJoins.map((j) => ({
-        kind: 'join',
-        student_id: idOf(j.key),
-        class_code: j.classCode,
-      })),
-    ];
-    if (staged.length) {
+    const idOf = (key: StudentKey): string => ('id' in key ? key.id : newIds.get(key.pupilNumber)!);
+    for (const c of createdClasses) plan.classIds.set(c.code!, c.id!);
+
+    step('Writing students');
+    if (plan.newStudents.length) {
+      const n = plan.newStudents;
       await em.query(
-        `CREATE TEMP TABLE import_rows ON COMMIT DROP AS
-           SELECT * FROM jsonb_to_recordset($1::jsonb) AS r(
-             kind text, student_id uuid, membership_id uuid, pupil_number text, given_name text,
-             family_name text, email text, date_of_birth date, grade integer,
-             guardian_name text, guardian_email text, class_code text)`,
-        [JSON.stringify(staged)],
+        `INSERT INTO students (id, organisation_id, membership_id, pupil_number, given_name, family_name, email, date_of_birth, grade)
+         SELECT u.id, $1, u.membership_id, u.pupil_number, u.given_name, u.family_name, u.email, u.date_of_birth, u.grade
+           FROM unnest($2::uuid[], $3::uuid[], $4::text[], $5::text[], $6::text[], $7::text[], $8::date[], $9::integer[])
+             AS u(id, membership_id, pupil_number, given_name, family_name, email, date_of_birth, grade)`,
+        [
+          org,
+          n.map((r) => newIds.get(r.pupilNumber!)),
+          n.map((r) => membershipByPupil.get(r.pupilNumber!) ?? null),
+          n.map((r) => r.pupilNumber),
+          n.map((r) => r.givenName),
+          n.map((r) => r.familyName),
+          n.map((r) => r.studentEmail),
+          n.map((r) => r.dateOfBirth),
+          n.map((r) => r.grade),
+        ],
       );
-      step('Writing students');
-      if (plan.newStudents.length)
-        await em.query(
-          `INSERT INTO students (id, organisation_id, membership_id, pupil_number, given_name, family_name, email, date_of_birth, grade)
-           SELECT student_id, $1, membership_id, pupil_number, given_name, family_name, email, date_of_birth, grade
-             FROM import_rows WHERE kind = 'new'`,
-          [org],
-        );
-      if (plan.updates.length)
-        await em.query(
-          `UPDATE students s SET given_name = r.given_name, family_name = r.family_name, email = r.email,
-                  date_of_birth = r.date_of_birth, grade = r.grade
-             FROM import_rows r WHERE r.kind = 'update' AND s.id = r.student_id AND s.organisation_id = $1`,
-          [org],
-        );
-      step('Writing guardians and class places');
-      if (plan.newGuardians.length)
-        await em.query(
-          `INSERT INTO guardians (organisation_id, student_id, name, email)
-           SELECT $1, student_id, guardian_name, guardian_email FROM import_rows WHERE kind = 'guardian'`,
-          [org],
-        );
-      if (plan.classJoins.length)
-        await em.query(
-          `INSERT INTO class_members (class_id, student_id)
-           SELECT c.id, r.student_id FROM import_rows r
-             JOIN classes c ON c.organisation_id = $1 AND c.code = r.class_code
-            WHERE r.kind = 'join'
-           ON CONFLICT DO NOTHING`,
-          [org],
-        );
+    }
+    if (plan.updates.length) {
+      // A blank optional cell keeps what is stored.
+      const u = plan.updates;
+      await em.query(
+        `UPDATE students s SET given_name = u.given_name, family_name = u.family_name, email = u.email,
+                date_of_birth = u.date_of_birth, grade = u.grade
+           FROM unnest($2::uuid[], $3::text[], $4::text[], $5::text[], $6::date[], $7::integer[])
+             AS u(id, given_name, family_name, email, date_of_birth, grade)
+          WHERE s.id = u.id AND s.organisation_id = $1`,
+        [
+          org,
+          u.map((x) => x.student.id),
+          u.map((x) => x.row.givenName),
+          u.map((x) => x.row.familyName),
+          u.map((x) => x.row.studentEmail ?? x.student.email),
+          u.map((x) => x.row.dateOfBirth),
+          u.map((x) => x.row.grade ?? x.student.grade),
+        ],
+      );
+    }
+    step('Writing guardians and class places');
+    if (plan.newGuardians.length) {
+      const g = plan.newGuardians;
+      await em.query(
+        `INSERT INTO guardians (organisation_id, student_id, name, email)
+         SELECT $1, u.student_id, u.name, u.email FROM unnest($2::uuid[], $3::text[], $4::text[]) AS u(student_id, name, email)`,
+        [org, g.map((x) => idOf(x.key)), g.map((x) => x.name), g.map((x) => x.email)],
+      );
+    }
+    if (plan.classJoins.length) {
+      const j = plan.classJoins;
+      await em.query(
+        `INSERT INTO class_members (class_id, student_id) SELECT * FROM unnest($1::uuid[], $2::uuid[])
+         ON CONFLICT DO NOTHING`,
+        [j.map((x) => plan.classIds.get(x.classCode)!), j.map((x) => idOf(x.key))],
+      );
     }
     if (plan.guardianRenames.length) {
       await em.query(
