@@ -55,7 +55,8 @@ export function navLink(page: Page, label: string) {
   return {
     link,
     async click() {
-      const group = nav.locator('li.sm-bar-group').filter({ has: link });
+      // `has` is matched inside each menu, so it takes a locator from the page, not from `nav`.
+      const group = nav.locator('li.sm-bar-group').filter({ has: page.getByRole('link', { name: label, exact: true, includeHidden: true }) });
       if ((await group.count()) > 0 && !(await link.isVisible())) await group.getByRole('button').click();
       await link.click();
     },

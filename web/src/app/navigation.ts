@@ -37,6 +37,7 @@ export const navItems: readonly NavItem[] = [
   { to: paths.agreement.href(), label: 'Agreement', roles: paths.agreement.roles, group: 'Marking quality' },
   { to: paths.standardisation.href(), label: 'Standardisation', roles: paths.standardisation.roles, group: 'Marking quality' },
   { to: paths.outbox.href(), label: 'Outbox', roles: paths.outbox.roles, group: 'School' },
+  { to: paths.bandPolicy.href(), label: 'Band policy', roles: paths.bandPolicy.roles, group: 'School' },
   { to: paths.recordingSettings.href(), label: 'Recordings', roles: paths.recordingSettings.roles, group: 'School' },
 ];
 

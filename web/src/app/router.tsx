@@ -92,6 +92,13 @@ export const routes: RouteObject[] = [
         },
       },
       {
+        path: paths.bandPolicy.path,
+        lazy: async () => {
+          const { BandPolicyPage } = await import('@/features/band-policy/pages/BandPolicyPage');
+          return { element: <RequireAuth roles={paths.bandPolicy.roles}><BandPolicyPage /></RequireAuth> };
+        },
+      },
+      {
         path: paths.recordingSettings.path,
         lazy: async () => {
           const { RecordingSettingsPage } = await import('@/features/recordings/pages/RecordingSettingsPage');

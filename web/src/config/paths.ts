@@ -126,6 +126,8 @@ export const paths = {
   },
   standardisationDeviations: { path: '/standardisation/my-deviations', href: () => '/standardisation/my-deviations', roles: ['examiner'] },
   // Recordings (issue 6): the admin's retention period.
+  // The band policy (issue 7): teachers read it, an admin saves a new version.
+  bandPolicy: { path: '/band-policy', href: () => '/band-policy', roles: ['admin', 'teacher'] },
   recordingSettings: { path: '/recordings/settings', href: () => '/recordings/settings', roles: ['admin'] },
   // Results (issue 8): classes compared, a sitting's and a class's results, exports and PDFs.
   results: { path: '/results', href: () => '/results', roles: ['admin', 'teacher'] },
