@@ -1,4 +1,6 @@
 import { randomUUID } from 'node:crypto';
+import { parse } from 'csv-parse/sync';
+import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type {
   DeskView,
@@ -17,6 +19,12 @@ import { Result } from '../results/entities/result.entity.js';
 import { Slot } from '../sittings/entities/slot.entity.js';
 
 const auth = (token: string) => ({ Authorization: `Bearer ${token}` });
+/** Reads a binary response body (PDF) as a Buffer with supertest. */
+const binary = (res: NodeJS.ReadableStream, cb: (err: Error | null, body: Buffer) => void) => {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
+};
 const full = (_r: Request, c: SeedCriterion) => c.maxMark;
 const eightTenths = (_r: Request, c: SeedCriterion) => (c.maxMark * 8) / 10;
 // 7/10, 3/5, 4/5, 5/5, 2/5, 6/10, 4/5 on the seven starter criteria: 8.7/13 per request → 20 of 30.
@@ -270,6 +278,39 @@ describe('moderation and release (issue 7 §2, §5)', () => {
       ).status,
     ).toBe(409);
   });
+
+  it('the year export and the mark sheet show the agreed marks of an agreed result, not the first examiner’s', async () => {
+    // KL1011: first examiner 8/10 on note accuracy and evenness (4/5 elsewhere); agreed 9/10 on
+    // those two and 4/5 elsewhere (the test above). The export must carry the agreed 9s.
+    const a = pupil('KL1011');
+    const r = await t.db.getRepository(Result).findOneByOrFail({ slotId: a.id });
+    expect(r.basis).toBe('agreed');
+    const [{ id: classId }] = (await t.db.query(`SELECT id FROM classes WHERE code = 'WED-INT'`)) as [{ id: string }];
+    const res = await t.http().get(`/api/classes/${classId}/results/export?from=2026-09-01&to=2027-08-31`).set(auth(tok.teacher!));
+    expect(res.status).toBe(200);
+    const [header, ...rows] = parse(res.text, { bom: true }) as string[][];
+    const col = (name: string) => header!.indexOf(name);
+    const mine = rows.filter((row) => row[col('Pupil number')] === 'KL1011');
+    expect(mine.length).toBe(r.profile.requests.filter((q) => q.asked).length * 7);
+    for (const row of mine) {
+      const key = row[col('Criterion key')]!;
+      expect(Number(row[col('Mark')]), `${key} of request ${row[col('Request')]}`).toBe(key === 'note_accuracy' || key === 'evenness' ? 9 : 4);
+      expect(row[col('Basis')]).toBe('agreed');
+    }
+    // The marks add up to the stored (agreed) profile, criterion by criterion.
+    for (const c of r.profile.criteria)
+      expect(mine.filter((row) => row[col('Criterion key')] === c.key).reduce((n, row) => n + Number(row[col('Mark')]), 0)).toBe(c.marks);
+
+    const pdf = await t.http().get(`/api/results/${r.id}/mark-sheet`).set(auth(tok.teacher!)).buffer(true).parse(binary as never);
+    expect(pdf.status).toBe(200);
+    const parser = new PDFParse({ data: new Uint8Array(pdf.body as Buffer) });
+    const text = (await parser.getText()).text;
+    await parser.destroy();
+    // Each request's table row reads "<criterion> <mark> <out of>": the agreed 9 of 10, never the first examiner's 8.
+    expect(text).toMatch(/Note accuracy\s+9\s+10/);
+    expect(text).not.toMatch(/Note accuracy\s+8\s+10/);
+    expect(text).toContain('First examiner on KL1011.'); // comments stay the first examiner's
+  }, 120_000);
 
   it('a third marker marks blind on the desk; their sheet settles the pair', async () => {
     const b = pupil('KL1013');

@@ -221,17 +221,26 @@ export class ProgressService {
     const latest = [...sittings].reverse().find((x) => x.result);
     let percentile: ProgressView['percentile'] = null;
     if (latest?.result) {
-      // Each same-grade student's latest result in the same list lineage over the year (their own included).
+      // Each same-grade student's latest result in the same list lineage over the year (their own
+      // included), counted by percentage: a few dozen rows, however many students. Per list version
+      // the index (organisation, version, student, computed_at DESC) INCLUDE (percentage) hands the
+      // latest per student in order, without touching the table; across versions, the latest wins.
       const peers = (await this.db.query(
-        `SELECT DISTINCT ON (r.student_id) r.percentage
-           FROM results r
-          WHERE r.organisation_id = $1 AND r.computed_at >= $4::date
-            AND r.list_version_id = ANY (SELECT v.id FROM requirement_list_versions v
-                                          WHERE v.organisation_id = $1 AND v.list_id = $2 AND v.grade = $3)
-          ORDER BY r.student_id, r.computed_at DESC`,
+        `SELECT y.percentage, count(*)::int AS n
+           FROM (SELECT DISTINCT ON (x.student_id) x.percentage
+                   FROM requirement_list_versions v
+                  CROSS JOIN LATERAL (
+                    SELECT DISTINCT ON (r.student_id) r.student_id, r.computed_at, r.percentage
+                      FROM results r
+                     WHERE r.organisation_id = $1 AND r.list_version_id = v.id AND r.computed_at >= $4::date
+                     ORDER BY r.student_id, r.computed_at DESC
+                  ) x
+                  WHERE v.organisation_id = $1 AND v.list_id = $2 AND v.grade = $3
+                  ORDER BY x.student_id, x.computed_at DESC) y
+          GROUP BY y.percentage`,
         [caller.organisationId, latest.lineageId, latest.grade, from],
-      )) as { percentage: number }[];
-      const values = peers.map((p) => p.percentage);
+      )) as { percentage: number; n: number }[];
+      const values = peers.flatMap((p) => Array<number>(p.n).fill(p.percentage));
       if (!values.includes(latest.result.percentage)) values.push(latest.result.percentage);
       percentile = {
         value: percentileInGrade(latest.result.percentage, values),
@@ -267,18 +276,39 @@ export class ProgressService {
     const view: AttentionView = { entries: [], students: students.length, caution: TENSION_CAUTION };
     if (!students.length) return view;
     const from = minusDays(this.today(caller), YEAR_DAYS);
+    // One statement for the whole list. Only students who could have an entry are read in full:
+    // at least 3 results with a criterion below 60 % (entrenched, persistent tension), or a result
+    // with at least 2 slips per 100 notes (a rising rate must end there). The rules themselves are
+    // applied below, unchanged; this only spares reading everyone's year of profiles.
+    const scope = admin
+      ? `r.organisation_id = $1`
+      : `r.organisation_id = $1 AND r.student_id IN (SELECT cm.student_id FROM class_members cm JOIN class_teachers ct ON ct.class_id = cm.class_id WHERE ct.membership_id = $3)`;
     const rows = (await this.db.query(
-      `SELECT r.student_id, r.slot_id, st.id AS sitting_id, st.title, st.date::text AS date,
-              r.profile -> 'criteria' AS criteria, r.slips, r.notes_played,
-              (SELECT array_agg(ms.examiner_membership_id::text ORDER BY ms.role) FROM mark_sheets ms
-                WHERE ms.slot_id = r.slot_id AND ms.status = 'submitted') AS examiner_ids,
-              (SELECT array_agg(p.display_name ORDER BY ms.role) FROM mark_sheets ms
-                 JOIN memberships m ON m.id = ms.examiner_membership_id JOIN people p ON p.id = m.person_id
-                WHERE ms.slot_id = r.slot_id AND ms.status = 'submitted') AS examiners
-         FROM results r JOIN sittings st ON st.id = r.sitting_id
-        WHERE r.organisation_id = $1 AND r.student_id = ANY($2::uuid[]) AND st.date >= $3
-        ORDER BY st.date`,
-      [caller.organisationId, students.map((s) => s.id), from],
+      `WITH year AS (
+         SELECT r.student_id, r.slot_id, r.sitting_id, st.title, st.date, r.profile -> 'criteria' AS criteria, r.slips, r.notes_played
+           FROM results r JOIN sittings st ON st.id = r.sitting_id
+          WHERE ${scope} AND st.organisation_id = $1 AND st.date >= $2
+       ), candidates AS (
+         SELECT y.student_id FROM year y
+          GROUP BY y.student_id
+         HAVING count(*) FILTER (WHERE EXISTS (
+                  SELECT 1 FROM jsonb_array_elements(y.criteria) c
+                   WHERE (c ->> 'fraction')::float < 0.6
+                      OR (c ->> 'marks')::float < 0.6 * NULLIF((c ->> 'maximum')::float, 0))) >= 3
+             OR bool_or(y.notes_played > 0 AND 100 * y.slips >= 2 * y.notes_played)
+       )
+       SELECT y.student_id, y.slot_id, y.sitting_id, y.title, y.date::text AS date, y.criteria, y.slips, y.notes_played,
+              e.examiner_ids, e.examiners
+         FROM year y
+         JOIN candidates USING (student_id)
+         LEFT JOIN LATERAL (
+           SELECT array_agg(ms.examiner_membership_id::text ORDER BY ms.role) AS examiner_ids,
+                  array_agg(p.display_name ORDER BY ms.role) AS examiners
+             FROM mark_sheets ms JOIN memberships m ON m.id = ms.examiner_membership_id JOIN people p ON p.id = m.person_id
+            WHERE ms.slot_id = y.slot_id AND ms.organisation_id = $1 AND ms.status = 'submitted'
+         ) e ON true
+        ORDER BY y.date`,
+      admin ? [caller.organisationId, from] : [caller.organisationId, from, caller.membershipId],
     )) as {
       student_id: string;
       slot_id: string;
@@ -292,8 +322,15 @@ export class ProgressService {
       examiners: string[] | null;
     }[];
     const bySittingOf = new Map(rows.map((r) => [`${r.student_id}|${r.sitting_id}`, r]));
+    // Each student's rows, in date order, found by key rather than by scanning every row per student.
+    const rowsOf = new Map<string, typeof rows>();
+    for (const r of rows) {
+      const list = rowsOf.get(r.student_id);
+      if (list) list.push(r);
+      else rowsOf.set(r.student_id, [r]);
+    }
     for (const s of students) {
-      const mine = rows.filter((r) => r.student_id === s.id);
+      const mine = rowsOf.get(s.id) ?? [];
       if (!mine.length) continue;
       const student = { id: s.id, name: fullName(s), pupilNumber: s.pupil_number, grade: s.grade };
       const evidenceOf = (sittingId: string, value: string): AttentionEvidence => {

@@ -93,43 +93,61 @@ function toRow(r: ResultDbRow): ResultRow {
 }
 
 /**
- * Which submitted sheet holds the marks behind a result: the third marker's when the result is
- * theirs, else the first examiner's (also for 'agreed', until moderation stores agreed marks as a
- * sheet of their own; the Basis column says which total the row belongs to).
+ * The marks behind a result, as one jsonb object by cell ("mark:0:note_accuracy" → 7), by its
+ * basis: the agreed marks moderation stored for 'agreed'; the third marker's submitted sheet for
+ * 'third'; else the first examiner's (single, or first of a double-marked pair).
  */
-const SHEET_ROLE = `(CASE WHEN r.basis = 'third' THEN 'third' ELSE 'first' END)`;
+const RESULT_MARKS = `
+  CASE WHEN o.basis = 'agreed'
+       THEN (SELECT mc.agreed_marks -> 'marks' FROM moderation_cases mc
+              WHERE mc.slot_id = o.slot_id AND mc.organisation_id = o.organisation_id AND mc.status = 'agreed')
+       ELSE (SELECT jsonb_object_agg(c.cell, c.value) FROM mark_sheets ms JOIN mark_cells c ON c.sheet_id = ms.id
+              WHERE ms.slot_id = o.slot_id AND ms.organisation_id = o.organisation_id AND ms.status = 'submitted'
+                AND ms.role = (CASE WHEN o.basis = 'third' THEN 'third' ELSE 'first' END) AND c.cell LIKE 'mark:%')
+  END`;
 
 /**
- * The marks of a result, one row per request × criterion, from the submitted sheet the result
- * was computed from (SHEET_ROLE).
+ * The marks of results, one row per asked request × criterion with a mark (RESULT_MARKS).
  * Rows come in order of the sitting date, sitting, student, request and the rubric's criteria.
+ * The results are sorted first (small rows); each one's cells then follow in their own order, so
+ * the cells themselves are never sorted together. Per result, the marks, the draw's rubric versions
+ * and the request labels are unpacked once (OFFSET 0 keeps a subquery from being folded into, and
+ * re-run for, every cell).
  */
 function yearRowsSql(where: string): string {
   return `
-  SELECT st.pupil_number, st.given_name, st.family_name, st.grade, s.date::text, s.title, lv.name,
+  SELECT o.pupil_number, o.given_name, o.family_name, o.grade, o.sitting_date, o.title, o.list_name,
          x.request_no, x.request_label, x.criterion_key, x.criterion_label, x.mark, x.max_mark,
-         r.total, r.out_of, r.band_label, r.basis
-    FROM results r
-    JOIN sittings s ON s.id = r.sitting_id
-    JOIN students st ON st.id = r.student_id
-    JOIN requirement_list_versions lv ON lv.id = r.list_version_id
-    JOIN slot_draws d ON d.slot_id = r.slot_id
-    JOIN mark_sheets ms ON ms.slot_id = r.slot_id AND ms.role = ${SHEET_ROLE} AND ms.status = 'submitted'
+         o.total, o.out_of, o.band_label, o.basis
+    FROM (
+      SELECT r.slot_id, r.organisation_id, r.basis, r.total, r.out_of, r.band_label, r.profile,
+             st.pupil_number, st.given_name, st.family_name, st.grade, st.id AS student_id,
+             s.date, s.date::text AS sitting_date, s.title, s.id AS sitting_id, lv.name AS list_name
+        FROM results r
+        JOIN sittings s ON s.id = r.sitting_id
+        JOIN students st ON st.id = r.student_id
+        JOIN requirement_list_versions lv ON lv.id = r.list_version_id
+       WHERE ${where}
+       ORDER BY s.date, s.title, s.id, st.family_name, st.given_name, st.id
+      OFFSET 0
+    ) o
    CROSS JOIN LATERAL (
-     SELECT q.idx + 1 AS request_no, COALESCE(pr.label, '') AS request_label, rc.key AS criterion_key,
-            rc.label AS criterion_label, (c.value #>> '{}')::int AS mark, rc.max_mark
-       FROM mark_cells c
-       CROSS JOIN LATERAL (SELECT split_part(c.cell, ':', 2)::int AS idx, split_part(c.cell, ':', 3) AS ckey) q
-       JOIN rubric_criteria rc ON rc.rubric_version_id = (d.requests -> q.idx ->> 'rubricVersionId')::uuid AND rc.key = q.ckey
-       LEFT JOIN LATERAL (
-         SELECT e ->> 'label' AS label FROM jsonb_array_elements(r.profile -> 'requests') e
-          WHERE (e ->> 'index')::int = q.idx LIMIT 1
-       ) pr ON true
-      WHERE c.sheet_id = ms.id AND c.cell LIKE 'mark:%' AND jsonb_typeof(c.value) = 'number'
+     SELECT q.idx + 1 AS request_no, q.label AS request_label, rc.key AS criterion_key, rc.label AS criterion_label,
+            (u.marks ->> ('mark:' || q.idx || ':' || rc.key))::int AS mark, rc.max_mark
+       FROM (SELECT ${RESULT_MARKS} AS marks,
+                    (SELECT jsonb_object_agg(e ->> 'index', e ->> 'rubricVersionId') FROM slot_draws d, jsonb_array_elements(d.requests) e
+                      WHERE d.slot_id = o.slot_id AND d.organisation_id = o.organisation_id) AS rubric_of
+             OFFSET 0) u
+      CROSS JOIN LATERAL (
+        SELECT (e ->> 'index')::int AS idx, COALESCE(e ->> 'label', '') AS label
+          FROM jsonb_array_elements(o.profile -> 'requests') e
+         WHERE COALESCE((e ->> 'asked')::boolean, true)
+      ) q
+      JOIN rubric_criteria rc ON rc.rubric_version_id = (u.rubric_of ->> q.idx::text)::uuid
+      WHERE jsonb_typeof(u.marks -> ('mark:' || q.idx || ':' || rc.key)) = 'number'
       ORDER BY q.idx, rc.position
    ) x
-   WHERE ${where}
-   ORDER BY s.date, s.title, s.id, st.family_name, st.given_name, st.id`;
+   ORDER BY o.date, o.title, o.sitting_id, o.family_name, o.given_name, o.student_id`;
 }
 
 @Injectable()
@@ -376,13 +394,8 @@ export class ReportsService {
     const period = await this.periodOf(cls, q);
     const where = `r.organisation_id = $1 AND s.date BETWEEN $2 AND $3 AND r.student_id IN (SELECT student_id FROM class_members WHERE class_id = $4)`;
     const params = [this.org(), period.from, period.to, classId];
-    const [{ n }] = await this.db.query(
-      `SELECT count(*)::int AS n FROM results r JOIN sittings s ON s.id = r.sitting_id
-         JOIN mark_sheets ms ON ms.slot_id = r.slot_id AND ms.role = ${SHEET_ROLE} AND ms.status = 'submitted'
-         JOIN mark_cells c ON c.sheet_id = ms.id AND c.cell LIKE 'mark:%' AND jsonb_typeof(c.value) = 'number'
-        WHERE ${where}`,
-      params,
-    );
+    // The same statement counted, so the header always agrees with the rows (a class's year is small).
+    const [{ n }] = await this.db.query(`SELECT count(*)::int AS n FROM (${yearRowsSql(where)}) t`, params);
     await sendCsv(res, `marks-${slug(cls.code)}-${period.from}-to-${period.to}.csv`, (out) => writeQueryCsv(this.db, { sql: yearRowsSql(where), params, header: YEAR_EXPORT_COLUMNS }, out, { bom }), { expectedRows: n });
   }
 
@@ -423,12 +436,21 @@ export class ReportsService {
     return o?.name ?? '';
   }
 
-  /** The marks behind a result: each request's criteria, flags and comment, and the overall comment. */
+  /**
+   * The marks behind a result: each request's criteria, flags and comment, and the overall comment.
+   * The sheet is the third marker's for a 'third' result, else the first examiner's; for an
+   * 'agreed' result the marks are the agreed ones moderation stored, while flags and comments stay
+   * the first examiner's (as ResultsService scores it: agreement is about marks).
+   */
   private async sheetDetail(r: ResultDbRow) {
     const cells: { cell: string; value: unknown }[] = await this.db.query(
       `SELECT c.cell, c.value FROM mark_sheets ms JOIN mark_cells c ON c.sheet_id = ms.id
-        WHERE ms.organisation_id = $1 AND ms.slot_id = $2 AND ms.role = $3 AND ms.status = 'submitted'`,
-      [this.org(), r.slot_id, r.basis === 'third' ? 'third' : 'first'],
+        WHERE ms.organisation_id = $1 AND ms.slot_id = $2 AND ms.role = $3 AND ms.status = 'submitted'
+          AND NOT ($4::boolean AND (c.cell LIKE 'mark:%' OR c.cell LIKE 'asked:%'))
+       UNION ALL
+       SELECT a.key, a.value FROM moderation_cases mc CROSS JOIN LATERAL jsonb_each(mc.agreed_marks -> 'marks') a
+        WHERE $4::boolean AND mc.organisation_id = $1 AND mc.slot_id = $2 AND mc.status = 'agreed'`,
+      [this.org(), r.slot_id, r.basis === 'third' ? 'third' : 'first', r.basis === 'agreed'],
     );
     const [draw]: { requests: { index: number; rubricVersionId: string }[] }[] = await this.db.query(
       `SELECT requests FROM slot_draws WHERE organisation_id = $1 AND slot_id = $2`,
