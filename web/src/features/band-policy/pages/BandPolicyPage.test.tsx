@@ -24,7 +24,10 @@ describe('the band policy page', () => {
     mockApi({ 'GET /api/band-policy': () => json(200, view) });
     renderApp('/band-policy', makeSession(makeUser(['teacher'])));
     const table = await screen.findByRole('table', { name: 'Current bands' });
-    const rows = within(table).getAllByRole('row').slice(1).map((r) => r.textContent);
+    const rows = within(table)
+      .getAllByRole('row')
+      .slice(1)
+      .map((r) => r.textContent);
     expect(rows).toEqual([
       'Distinction80 % and above',
       'Merit70 % to below 80 %',
@@ -39,7 +42,13 @@ describe('the band policy page', () => {
       'GET /api/band-policy': () => json(200, view),
       'POST /api/band-policy': (req) => {
         const body = req.body as Pick<BandPolicyView['current'], 'bands' | 'below'>;
-        const v2 = { ...body, id: 'bp-2', version: 2, createdAt: '2026-12-02T09:00:00Z', createdBy: { id: 'p', displayName: 'Morwenna Tilley' } };
+        const v2 = {
+          ...body,
+          id: 'bp-2',
+          version: 2,
+          createdAt: '2026-12-02T09:00:00Z',
+          createdBy: { id: 'p', displayName: 'Morwenna Tilley' },
+        };
         return json(201, { current: v2, versions: [v1, v2] });
       },
     });
@@ -47,10 +56,16 @@ describe('the band policy page', () => {
     const merit = await screen.findByLabelText('Band 2: lowest share (%)');
     fireEvent.change(merit, { target: { value: '85' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save as version 2' }));
-    expect(await screen.findByText('List bands from the highest threshold down, each lower than the one before.')).toBeInTheDocument();
+    expect(
+      await screen.findByText(
+        'List bands from the highest threshold down, each lower than the one before.',
+      ),
+    ).toBeInTheDocument();
     expect(api.calls('POST /api/band-policy')).toHaveLength(0);
     fireEvent.change(merit, { target: { value: '65' } });
-    fireEvent.change(screen.getByLabelText('Band 3: lowest share (%)'), { target: { value: '50' } });
+    fireEvent.change(screen.getByLabelText('Band 3: lowest share (%)'), {
+      target: { value: '50' },
+    });
     fireEvent.click(screen.getByRole('button', { name: 'Save as version 2' }));
     await waitFor(() => expect(api.calls('POST /api/band-policy')).toHaveLength(1));
     expect(api.calls('POST /api/band-policy')[0]!.body).toEqual({

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useFieldArray, useForm } from 'react-hook-form';
+import { useFieldArray, useForm, type UseFormRegisterReturn } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Button } from 'primereact/button';
 import {
@@ -35,7 +35,8 @@ export function BandPolicyPage() {
       <div>
         <h1 id="band-policy-title">Band policy</h1>
         <p className="sm-page-subtitle">
-          Version {q.data.current.version} · bands from the rounded total as a share of the paper’s marks
+          Version {q.data.current.version} · bands from the rounded total as a share of the paper’s
+          marks
         </p>
       </div>
       <CurrentPolicy policy={q.data.current} />
@@ -46,14 +47,22 @@ export function BandPolicyPage() {
 }
 
 /** Each band with the range of percentages it covers, highest first. */
-function ranges(policy: Pick<BandPolicyBody, 'bands' | 'below'>): { label: string; range: string }[] {
+function ranges(
+  policy: Pick<BandPolicyBody, 'bands' | 'below'>,
+): { label: string; range: string }[] {
   const bands = [...policy.bands].sort((a, b) => b.minPercent - a.minPercent);
   const rows = bands.map((b, i) => ({
     label: b.label,
-    range: i === 0 ? `${b.minPercent} % and above` : `${b.minPercent} % to below ${bands[i - 1]!.minPercent} %`,
+    range:
+      i === 0
+        ? `${b.minPercent} % and above`
+        : `${b.minPercent} % to below ${bands[i - 1]!.minPercent} %`,
   }));
   const lowest = bands.at(-1);
-  rows.push({ label: policy.below.label, range: lowest ? `below ${lowest.minPercent} %` : 'every total' });
+  rows.push({
+    label: policy.below.label,
+    range: lowest ? `below ${lowest.minPercent} %` : 'every total',
+  });
   return rows;
 }
 
@@ -94,28 +103,49 @@ function NewVersionForm({ view }: { view: BandPolicyView }) {
   const save = useCreateBandPolicyVersion();
   const [problem, setProblem] = useState<string | null>(null);
   const initial: BandPolicyBody = {
-    bands: view.current.bands.map((b) => ({ key: b.key, label: b.label, minPercent: b.minPercent })),
+    bands: view.current.bands.map((b) => ({
+      key: b.key,
+      label: b.label,
+      minPercent: b.minPercent,
+    })),
     below: { key: view.current.below.key, label: view.current.below.label },
   };
-  const form = useForm<BandPolicyBody>({ resolver: zodResolver(bandPolicyBodySchema), defaultValues: initial });
+  const form = useForm<BandPolicyBody>({
+    resolver: zodResolver(bandPolicyBodySchema),
+    defaultValues: initial,
+  });
   const bands = useFieldArray({ control: form.control, name: 'bands' });
   const errors = form.formState.errors;
   const onSubmit = form.handleSubmit((body) => {
     setProblem(null);
     save.mutate(body, {
-      onSuccess: (v) => form.reset({ bands: v.current.bands.map((b) => ({ key: b.key, label: b.label, minPercent: b.minPercent })), below: v.current.below }),
+      onSuccess: (v) =>
+        form.reset({
+          bands: v.current.bands.map((b) => ({
+            key: b.key,
+            label: b.label,
+            minPercent: b.minPercent,
+          })),
+          below: v.current.below,
+        }),
       onError: (e) => setProblem(applyApiErrors(e, form.setError, ['bands', 'below'])),
     });
   });
   const listError = errors.bands?.message ?? errors.bands?.root?.message;
 
   return (
-    <form className="sm-sheet sm-band-policy__form" noValidate onSubmit={onSubmit} aria-labelledby="new-version-title">
+    <form
+      className="sm-sheet sm-band-policy__form"
+      noValidate
+      onSubmit={onSubmit}
+      aria-labelledby="new-version-title"
+    >
       <h2 id="new-version-title">Change the bands</h2>
       <p className="sm-muted">
-        Saving makes version {view.current.version + 1}. Sittings already scheduled keep the version they pinned; sittings
-        scheduled from now on use the new one. List the bands from the highest threshold down. The key names a band in exports
-        and comparisons: keep it when you only rename a band.
+        Saving makes version {view.current.version + 1}. Sittings already scheduled keep the version
+        they pinned; sittings scheduled from now on use the new one. List the bands from the highest
+        threshold down. The key names a band in exports and comparisons: keep it when you only
+        rename a band.
       </p>
       <table className="sm-band-policy__rows">
         <thead>
@@ -134,34 +164,29 @@ function NewVersionForm({ view }: { view: BandPolicyView }) {
             return (
               <tr key={field.id}>
                 <td>
-                  <input
-                    aria-label={`Band ${i + 1}: name`}
-                    aria-invalid={e?.label ? true : undefined}
-                    aria-describedby={e?.label ? `band-${i}-label-error` : undefined}
-                    {...form.register(`bands.${i}.label`)}
+                  <RowField
+                    label={`Band ${i + 1}: name`}
+                    errorId={`band-${i}-label-error`}
+                    error={e?.label?.message}
+                    registration={form.register(`bands.${i}.label`)}
                   />
-                  <FieldError id={`band-${i}-label-error`} message={e?.label?.message} />
                 </td>
                 <td>
-                  <input
-                    type="number"
-                    inputMode="decimal"
-                    step="any"
-                    aria-label={`Band ${i + 1}: lowest share (%)`}
-                    aria-invalid={e?.minPercent ? true : undefined}
-                    aria-describedby={e?.minPercent ? `band-${i}-min-error` : undefined}
-                    {...form.register(`bands.${i}.minPercent`, { valueAsNumber: true })}
+                  <RowField
+                    label={`Band ${i + 1}: lowest share (%)`}
+                    errorId={`band-${i}-min-error`}
+                    error={e?.minPercent?.message}
+                    number
+                    registration={form.register(`bands.${i}.minPercent`, { valueAsNumber: true })}
                   />
-                  <FieldError id={`band-${i}-min-error`} message={e?.minPercent?.message} />
                 </td>
                 <td>
-                  <input
-                    aria-label={`Band ${i + 1}: key`}
-                    aria-invalid={e?.key ? true : undefined}
-                    aria-describedby={e?.key ? `band-${i}-key-error` : undefined}
-                    {...form.register(`bands.${i}.key`)}
+                  <RowField
+                    label={`Band ${i + 1}: key`}
+                    errorId={`band-${i}-key-error`}
+                    error={e?.key?.message}
+                    registration={form.register(`bands.${i}.key`)}
                   />
-                  <FieldError id={`band-${i}-key-error`} message={e?.key?.message} />
                 </td>
                 <td>
                   <Button
@@ -179,23 +204,21 @@ function NewVersionForm({ view }: { view: BandPolicyView }) {
           })}
           <tr>
             <td>
-              <input
-                aria-label="Below every threshold: name"
-                aria-invalid={errors.below?.label ? true : undefined}
-                aria-describedby={errors.below?.label ? 'below-label-error' : undefined}
-                {...form.register('below.label')}
+              <RowField
+                label="Below every threshold: name"
+                errorId="below-label-error"
+                error={errors.below?.label?.message}
+                registration={form.register('below.label')}
               />
-              <FieldError id="below-label-error" message={errors.below?.label?.message} />
             </td>
             <td className="sm-muted">below the last</td>
             <td>
-              <input
-                aria-label="Below every threshold: key"
-                aria-invalid={errors.below?.key ? true : undefined}
-                aria-describedby={errors.below?.key ? 'below-key-error' : undefined}
-                {...form.register('below.key')}
+              <RowField
+                label="Below every threshold: key"
+                errorId="below-key-error"
+                error={errors.below?.key?.message}
+                registration={form.register('below.key')}
               />
-              <FieldError id="below-key-error" message={errors.below?.key?.message} />
             </td>
             <td />
           </tr>
@@ -212,16 +235,54 @@ function NewVersionForm({ view }: { view: BandPolicyView }) {
           onClick={() => {
             const label = 'New band';
             const last = form.getValues('bands').at(-1);
-            bands.append({ label, key: slug(`${label} ${bands.fields.length + 1}`), minPercent: Math.max(1, Math.round((last?.minPercent ?? 60) / 2)) });
+            bands.append({
+              label,
+              key: slug(`${label} ${bands.fields.length + 1}`),
+              minPercent: Math.max(1, Math.round((last?.minPercent ?? 60) / 2)),
+            });
           }}
         />
-        <Button type="submit" label={`Save as version ${view.current.version + 1}`} loading={save.isPending} />
+        <Button
+          type="submit"
+          label={`Save as version ${view.current.version + 1}`}
+          loading={save.isPending}
+        />
       </div>
       {problem && <Alert severity="error">{problem}</Alert>}
       {save.isSuccess && !form.formState.isDirty && (
-        <Alert severity="success">Saved as version {save.data.current.version}. Sittings scheduled from now on use it.</Alert>
+        <Alert severity="success">
+          Saved as version {save.data.current.version}. Sittings scheduled from now on use it.
+        </Alert>
       )}
     </form>
+  );
+}
+
+/** One input of the bands table, with its message under it (linked by aria-describedby). */
+function RowField({
+  label,
+  errorId,
+  error,
+  number,
+  registration,
+}: {
+  label: string;
+  errorId: string;
+  error: string | undefined;
+  number?: boolean;
+  registration: UseFormRegisterReturn;
+}) {
+  return (
+    <>
+      <input
+        {...(number ? { type: 'number', inputMode: 'decimal' as const, step: 'any' } : {})}
+        aria-label={label}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? errorId : undefined}
+        {...registration}
+      />
+      <FieldError id={errorId} message={error} />
+    </>
   );
 }
 
@@ -244,7 +305,9 @@ function History({ versions, timeZone }: { versions: BandPolicyVersionView[]; ti
               <tr key={v.id}>
                 <th scope="row">{v.version}</th>
                 <td>
-                  {[...v.bands.map((b) => `${b.label} ${b.minPercent} %`), v.below.label].join(' · ')}
+                  {[...v.bands.map((b) => `${b.label} ${b.minPercent} %`), v.below.label].join(
+                    ' · ',
+                  )}
                 </td>
                 <td>
                   {formatDateInZone(v.createdAt, timeZone)}
