@@ -2,6 +2,8 @@
 # `npm run bench`: ensures PostgreSQL, builds shared and api, then runs each benchmark listed in
 # BENCHMARKS below (scripts in api/bench/, run with node from the checkout root; each prints its
 # own results and exits non-zero when it fails).
+# `npm run bench -- saves [import ...]` runs only the benchmarks whose file name contains one of the
+# words (e.g. `saves` → marking-saves.mjs); no words runs them all.
 set -euo pipefail
 # shellcheck source=lib/env.sh
 source "$(dirname "${BASH_SOURCE[0]}")/lib/env.sh"
@@ -10,6 +12,20 @@ cd "$STAVEMARK_ROOT"
 # Add each benchmark here as it lands, e.g. "api/bench/marking-desk.mjs".
 # The "no benchmarks yet" branch below is only for while this list is empty.
 BENCHMARKS=("api/bench/class-import.mjs" "api/bench/marking-saves.mjs" "api/bench/results-at-scale.mjs")
+
+if [ "$#" -gt 0 ]; then
+  CHOSEN=()
+  for b in "${BENCHMARKS[@]}"; do
+    for word in "$@"; do
+      if [[ "$(basename "$b")" == *"$word"* ]]; then
+        CHOSEN+=("$b")
+        break
+      fi
+    done
+  done
+  [ "${#CHOSEN[@]}" -gt 0 ] || die "no benchmark matches: $* (listed: ${BENCHMARKS[*]})"
+  BENCHMARKS=("${CHOSEN[@]}")
+fi
 
 timed "npm packages" ensure_npm_packages
 timed "PostgreSQL" bash "$STAVEMARK_SCRIPTS/pg.sh" start
