@@ -2,8 +2,8 @@
 # `npm run bench`: ensures PostgreSQL, builds shared and api, then runs each benchmark listed in
 # BENCHMARKS below (scripts in api/bench/, run with node from the checkout root; each prints its
 # own results and exits non-zero when it fails).
-# `npm run bench -- saves [import ...]` runs only the benchmarks whose file name contains one of the
-# words (e.g. `saves` → marking-saves.mjs); no words runs them all.
+# `npm run bench -- <word>...` runs only the benchmarks whose file name contains one of the words
+# (e.g. `npm run bench -- import`); with no word, all of them.
 set -euo pipefail
 # shellcheck source=lib/env.sh
 source "$(dirname "${BASH_SOURCE[0]}")/lib/env.sh"
@@ -14,17 +14,17 @@ cd "$STAVEMARK_ROOT"
 BENCHMARKS=("api/bench/class-import.mjs" "api/bench/marking-saves.mjs" "api/bench/results-at-scale.mjs")
 
 if [ "$#" -gt 0 ]; then
-  CHOSEN=()
+  SELECTED=()
   for b in "${BENCHMARKS[@]}"; do
     for word in "$@"; do
       if [[ "$(basename "$b")" == *"$word"* ]]; then
-        CHOSEN+=("$b")
+        SELECTED+=("$b")
         break
       fi
     done
   done
-  [ "${#CHOSEN[@]}" -gt 0 ] || die "no benchmark matches: $* (listed: ${BENCHMARKS[*]})"
-  BENCHMARKS=("${CHOSEN[@]}")
+  [ "${#SELECTED[@]}" -gt 0 ] || die "no benchmark in api/scripts/bench.sh matches: $*"
+  BENCHMARKS=("${SELECTED[@]}")
 fi
 
 timed "npm packages" ensure_npm_packages
