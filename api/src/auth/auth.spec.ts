@@ -85,6 +85,27 @@ describe('sign-in, refresh rotation and revocation', () => {
     expect((await t.http().get('/api/auth/me').set('Authorization', `Bearer ${token}x`)).status).toBe(401);
   });
 
+  it('an access token is checked against the database on every request: version, membership, roles', async () => {
+    const token = await signIn(t, 'ottilie.brandt@demo.example');
+    const auth = { Authorization: `Bearer ${token}` };
+    const [{ id: personId, roles }] = (await t.db.query(
+      `SELECT p.id, m.roles FROM people p JOIN memberships m ON m.person_id = p.id WHERE p.email = 'ottilie.brandt@demo.example'`,
+    )) as { id: string; roles: string[] }[];
+    expect((await t.http().get('/api/marking/today').set(auth)).status).toBe(200);
+    // A role taken away counts on the next request (403 now, not at the token's expiry).
+    await t.db.query(`UPDATE memberships SET roles = ARRAY['teacher'] WHERE person_id = $1`, [personId]);
+    expect((await t.http().get('/api/marking/today').set(auth)).status).toBe(403);
+    await t.db.query(`UPDATE memberships SET roles = $2 WHERE person_id = $1`, [personId, roles]);
+    expect((await t.http().get('/api/marking/today').set(auth)).status).toBe(200);
+    // An inactive membership, then a bumped token version, each refuse the same token at once.
+    await t.db.query(`UPDATE memberships SET active = false WHERE person_id = $1`, [personId]);
+    expect((await t.http().get('/api/auth/me').set(auth)).status).toBe(401);
+    await t.db.query(`UPDATE memberships SET active = true WHERE person_id = $1`, [personId]);
+    expect((await t.http().get('/api/auth/me').set(auth)).status).toBe(200);
+    await t.db.query(`UPDATE people SET token_version = token_version + 1 WHERE id = $1`, [personId]);
+    expect((await t.http().get('/api/auth/me').set(auth)).status).toBe(401);
+  });
+
   it('a person in two organisations can switch; the token is scoped to the chosen one', async () => {
     const login = await t.http().post('/api/auth/login').send({ email: 'beatrix.oduya@demo.example', password: 'stavemark-demo' });
     expect(login.body.user.memberships).toHaveLength(2);

@@ -173,6 +173,22 @@ describe('the marking desk', () => {
     )) as { version: number; value: number }[];
     expect(row).toEqual({ version: 2, value: 4 });
 
+    // The same for a cell never saved (base 0): one change id racing itself makes one cell, once.
+    const fresh = randomUUID();
+    const bothNew = await Promise.all([
+      save(sheet, 'comment:overall', 'Even tone.', 0, fresh),
+      save(sheet, 'comment:overall', 'Even tone.', 0, fresh),
+    ]);
+    expect(bothNew.map((b) => b.body.status).sort()).toEqual(['applied', 'duplicate']);
+    expect(bothNew.map((b) => b.body.version)).toEqual([1, 1]);
+    expect(
+      await t.db.query(
+        `SELECT c.version, c.last_change_id, (SELECT count(*)::int FROM mark_changes m WHERE m.change_id = $3) AS n
+           FROM mark_cells c WHERE c.sheet_id = $1 AND c.cell = $2`,
+        [sheet, 'comment:overall', fresh],
+      ),
+    ).toEqual([{ version: 1, last_change_id: fresh, n: 1 }]);
+
     // Another tab, still on version 1, writes a different mark: a conflict with both values.
     const stale = await save(sheet, cell, 6, 1);
     expect(stale.status).toBe(409);
