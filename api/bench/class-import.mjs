@@ -13,13 +13,15 @@
 // reference only. Not a test: it reports, it does not judge.
 import 'reflect-metadata';
 import { randomBytes, randomUUID } from 'node:crypto';
+import { loadavg } from 'node:os';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 
 const ROWS = 5000;
-const RUNS = 3;
+// BENCH_RUNS for more samples (the median is reported) when the machine is busy.
+const RUNS = Number(process.env.BENCH_RUNS) || 3;
 const TARGET = 0.25;
 // BENCH_API_DIST compares another build (e.g. of an earlier commit) in the same conditions.
 const dist = process.env.BENCH_API_DIST
@@ -395,7 +397,14 @@ const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const mb = (n) => `${(n / 1024 / 1024).toFixed(1)} MB`;
 const rate = (ms) => Math.round(ROWS / (ms / 1000));
 
+/** The machine's load (1, 5, 15 minutes), printed beside the figures: others' work distorts them. */
+const load = () =>
+  loadavg()
+    .map((l) => l.toFixed(2))
+    .join(', ');
+
 async function main() {
+  const loadAtStart = load();
   await admin(`CREATE DATABASE ${dbName}`);
   let app;
   const client = new pg.Client({ connectionString: benchUrl });
@@ -526,6 +535,7 @@ async function main() {
     console.log(
       `Class-list import benchmark: ${ROWS} rows (${mb(last.bytes)} CSV), median of ${RUNS} runs; rows/s count CSV rows`,
     );
+    console.log(`  load average at start ${loadAtStart}, at end ${load()} (2 cores shared)`);
     console.log(
       `  COPY of the same rows into the tables the import fills (${last.copyRows} rows in ${COPY_TABLES.length} tables, indexes, constraints and foreign keys, one transaction)`,
     );
