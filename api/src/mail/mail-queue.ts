@@ -12,10 +12,11 @@ import type { Env } from '../config/env.js';
 
 export const MAIL_QUEUE = 'outbound-mail';
 /**
- * Mails per job: an import of 5,000 rows queues ~105 jobs rather than ~5,250, and a retry (with
- * back-off) of a job resends only its mails not yet sent.
+ * Mails per job: an import of 5,000 rows queues ~263 jobs rather than ~5,250, and a retry (with
+ * back-off) of a job resends only its mails not yet sent. Small enough that a job finishes well
+ * inside pg-boss's 15-minute expiry even when every send waits out the SMTP timeouts (20 × 40 s).
  */
-export const MAILS_PER_JOB = 50;
+export const MAILS_PER_JOB = 20;
 /** `mailIds` since mails were batched; `mailId` is a job queued before that. */
 export type MailJob = { mailIds: string[] } | { mailId: string };
 export const mailIdsOf = (job: MailJob): string[] =>
@@ -105,7 +106,8 @@ export class MailQueue implements OnApplicationBootstrap, OnApplicationShutdown 
             MAIL_QUEUE,
             {
               includeMetadata: true,
-              batchSize: 10,
+              // One job (up to MAILS_PER_JOB mails) per fetch: the expiry counts from the fetch.
+              batchSize: 1,
               pollingIntervalSeconds: this.env.MAIL_POLL_SECONDS,
             },
             handler,
