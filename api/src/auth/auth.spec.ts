@@ -88,9 +88,10 @@ describe('sign-in, refresh rotation and revocation', () => {
   it('an access token is checked against the database on every request: version, membership, roles', async () => {
     const token = await signIn(t, 'ottilie.brandt@demo.example');
     const auth = { Authorization: `Bearer ${token}` };
-    const [{ id: personId, roles }] = (await t.db.query(
+    const [row] = (await t.db.query(
       `SELECT p.id, m.roles FROM people p JOIN memberships m ON m.person_id = p.id WHERE p.email = 'ottilie.brandt@demo.example'`,
     )) as { id: string; roles: string[] }[];
+    const { id: personId, roles } = row!;
     expect((await t.http().get('/api/marking/today').set(auth)).status).toBe(200);
     // A role taken away counts on the next request (403 now, not at the token's expiry).
     await t.db.query(`UPDATE memberships SET roles = ARRAY['teacher'] WHERE person_id = $1`, [personId]);

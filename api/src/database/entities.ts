@@ -22,7 +22,6 @@ import { Sitting } from '../sittings/entities/sitting.entity.js';
 import { SittingPaper } from '../sittings/entities/sitting-paper.entity.js';
 import { SittingExaminer } from '../sittings/entities/sitting-examiner.entity.js';
 import { Slot } from '../sittings/entities/slot.entity.js';
-import { SittingMail } from '../sittings/entities/sitting-mail.entity.js';
 import { SlotDraw } from '../marking/entities/slot-draw.entity.js';
 import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
 import { MarkCell } from '../marking/entities/mark-cell.entity.js';
@@ -59,7 +58,6 @@ export const entities = [
   SittingPaper,
   SittingExaminer,
   Slot,
-  SittingMail,
   SlotDraw,
   MarkSheet,
   MarkCell,

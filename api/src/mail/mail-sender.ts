@@ -96,6 +96,7 @@ export class MailSender implements OnApplicationBootstrap {
         subject: rendered.subject,
         text: rendered.text,
         html: rendered.html,
+        attachments: rendered.attachments,
       })) as { messageId?: string };
       await this.mails.update(
         { id: mail.id },

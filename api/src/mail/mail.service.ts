@@ -12,6 +12,8 @@ export interface NewMail {
   toName: string;
   data: MailData;
   accountTokenId: string | null;
+  /** The sitting a sitting mail is about. */
+  sittingId?: string | null;
 }
 
 /**
@@ -33,8 +35,9 @@ export class MailService {
         { name: 'to_name', type: 'text' },
         { name: 'data', type: 'jsonb' },
         { name: 'account_token_id', type: 'uuid' },
+        { name: 'sitting_id', type: 'uuid' },
       ],
-      mails.map((m) => [m.organisationId, m.kind, m.toAddress, m.toName, m.data, m.accountTokenId]),
+      mails.map((m) => [m.organisationId, m.kind, m.toAddress, m.toName, m.data, m.accountTokenId, m.sittingId ?? null]),
       'id',
     ).then((rows) => rows.map((r) => r.id!));
     await this.queue.enqueue(em, ids);

@@ -30,17 +30,36 @@ export interface ThirdMarkingData {
   candidate: string;
   note: string | null;
 }
+/**
+ * A sitting's invitation, change or cancellation (sittings/sitting-invitations.ts words it when the
+ * change is made, so the message says what the recipient was told then), with its calendar file.
+ */
+export interface SittingMailData {
+  subject: string;
+  text: string;
+  /** The RFC 5545 calendar file, attached. */
+  ics: string;
+  icsFilename: string;
+}
 export type MailData =
   | InvitationData
   | GuardianNoticeData
   | PasswordResetData
   | ResultsReportData
-  | ThirdMarkingData;
+  | ThirdMarkingData
+  | SittingMailData;
+
+export interface MailAttachment {
+  filename: string;
+  content: string;
+  contentType: string;
+}
 
 export interface RenderedMail {
   subject: string;
   text: string;
   html: string;
+  attachments?: MailAttachment[];
 }
 
 export interface LinkFacts {
@@ -93,6 +112,8 @@ export function renderMail(kind: MailKind, data: MailData, link: LinkFacts | nul
   // Results and third-marking notices carry no one-time link: the reader signs in as usual.
   if (kind === 'results_report') return renderResultsReport(data as ResultsReportData);
   if (kind === 'third_marking') return renderThirdMarking(data as ThirdMarkingData);
+  if (kind === 'sitting_invitation' || kind === 'sitting_change' || kind === 'sitting_cancellation')
+    return renderSittingMail(data as SittingMailData);
   if (!link) throw new Error(`A ${kind} e-mail needs its link`);
   switch (kind) {
     case 'invitation': {
@@ -157,6 +178,18 @@ function renderResultsReport(d: ResultsReportData): RenderedMail {
     `With best wishes,\n${d.organisationName}`,
   );
   return compose(`${d.forGuardian ? `${first}'s` : 'Your'} mock-exam report: ${r.sittingTitle}`, paragraphs);
+}
+
+function renderSittingMail(d: SittingMailData): RenderedMail {
+  const mail = compose(d.subject, d.text.trimEnd().split(/\n{2,}/));
+  return {
+    ...mail,
+    // The text as worded, not re-joined: it is what the recipient was told.
+    text: d.text,
+    attachments: [
+      { filename: d.icsFilename, content: d.ics, contentType: 'text/calendar; charset=utf-8; method=PUBLISH' },
+    ],
+  };
 }
 
 function renderThirdMarking(d: ThirdMarkingData): RenderedMail {

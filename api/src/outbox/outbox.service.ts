@@ -9,7 +9,7 @@ import { listCaughtMail } from '../mail-catcher/mailbox.js';
 
 /**
  * What the local mail catcher received (development, demo and tests only), joined to our
- * OutboundMail and SittingMail rows by Message-ID: an admin sees the mail of their own organisation, and password
+ * OutboundMail rows by Message-ID: an admin sees the mail of their own organisation, and password
  * resets sent to its members.
  */
 @Injectable()
@@ -32,11 +32,7 @@ export class OutboxService {
           AND (o.organisation_id = $2
                OR (o.organisation_id IS NULL AND EXISTS (
                      SELECT 1 FROM people p JOIN memberships m ON m.person_id = p.id
-                      WHERE p.email = o.to_address AND m.organisation_id = $2)))
-       UNION ALL
-       -- Sitting invitations with their calendar files are queued in their own table.
-       SELECT s.message_id, 'sitting_' || s.kind, s.status, s.attempts FROM sitting_mail s
-        WHERE s.message_id = ANY($1) AND s.organisation_id = $2`,
+                      WHERE p.email = o.to_address AND m.organisation_id = $2)))`,
       [ids, org],
     )) as { message_id: string; kind: OutboxItem['kind']; status: string; attempts: number }[];
     const ours = new Map(rows.map((r) => [r.message_id, r]));

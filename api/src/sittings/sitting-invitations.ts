@@ -2,6 +2,7 @@
 // candidates (a minor's guardians instead), each with their own times and a calendar file. Pure:
 // the service takes a snapshot before and after a change, and only those whose times changed hear
 // again.
+import type { NewMail } from '../mail/mail.service.js';
 import { buildIcs, type IcsEvent } from './ics.js';
 import { clockOf } from './zoned-time.js';
 
@@ -44,6 +45,19 @@ export interface OutgoingInvitation {
   text: string;
   ics: string;
   filename: string;
+}
+
+/** One of these as an OutboundMail row (kind `sitting_<kind>`), its words and calendar file as data. */
+export function asOutboundMail(organisationId: string, sittingId: string, m: OutgoingInvitation): NewMail {
+  return {
+    organisationId,
+    sittingId,
+    kind: `sitting_${m.kind}`,
+    toAddress: m.to.address,
+    toName: m.to.name,
+    data: { subject: m.subject, text: m.text, ics: m.ics, icsFilename: m.filename },
+    accountTokenId: null,
+  };
 }
 
 interface Facts {

@@ -13,23 +13,22 @@ import { BandPolicyService } from './band-policy.service.js';
 import { AccessArrangement } from './entities/access-arrangement.entity.js';
 import { BandPolicyVersion } from './entities/band-policy.entity.js';
 import { SittingExaminer } from './entities/sitting-examiner.entity.js';
-import { SittingMail } from './entities/sitting-mail.entity.js';
 import { SittingPaper } from './entities/sitting-paper.entity.js';
 import { Sitting } from './entities/sitting.entity.js';
 import { Slot } from './entities/slot.entity.js';
-import { QueuedSittingMailer, SittingMailer } from './sitting-mailer.js';
 import { ScheduleController, SittingsController, SlotsController } from './sittings.controller.js';
 import { SittingsService } from './sittings.service.js';
 
 @Module({
   imports: [
-    TypeOrmModule.forFeature([Sitting, SittingPaper, SittingExaminer, Slot, AccessArrangement, BandPolicyVersion, SittingMail, RequirementListVersion, Student, ClassGroup, Membership, Organisation]),
+    TypeOrmModule.forFeature([Sitting, SittingPaper, SittingExaminer, Slot, AccessArrangement, BandPolicyVersion, RequirementListVersion, Student, ClassGroup, Membership, Organisation]),
     RequirementListsModule,
     ClassesModule,
     ResultsModule,
   ],
   controllers: [SittingsController, SlotsController, ScheduleController],
-  providers: [SittingsService, AccessArrangementsService, BandPolicyService, { provide: SittingMailer, useClass: QueuedSittingMailer }],
+  // E-mail through the global MailModule (OutboundMail rows, sent after commit).
+  providers: [SittingsService, AccessArrangementsService, BandPolicyService],
   // The marking desk and Today read sittings through the service.
   exports: [SittingsService],
 })

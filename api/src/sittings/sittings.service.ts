@@ -57,8 +57,8 @@ import {
   type CallerFacts,
   type SittingAccess,
 } from './sitting-access.js';
-import { invitationsFor, sittingCalendar, type InviteSnapshot, type Recipient } from './sitting-invitations.js';
-import { SittingMailer } from './sitting-mailer.js';
+import { MailService } from '../mail/mail.service.js';
+import { asOutboundMail, invitationsFor, sittingCalendar, type InviteSnapshot, type Recipient } from './sitting-invitations.js';
 import { ResultsService } from '../results/results.service.js';
 import { ReleaseService } from '../results/release.service.js';
 import { toSittingSummary, toSittingView, type PaperFacts } from './sittings.mapper.js';
@@ -139,7 +139,7 @@ export class SittingsService {
     private readonly audit: AuditService,
     private readonly lists: RequirementListsService,
     private readonly classService: ClassesService,
-    private readonly mailer: SittingMailer,
+    private readonly mail: MailService,
     private readonly results: ResultsService,
     private readonly release: ReleaseService,
   ) {
@@ -609,7 +609,7 @@ export class SittingsService {
       }
       await this.audit.record({ action: `sitting.${input.status}`, entity: 'sitting', entityId: s.id, before, after: { status: s.status } }, em);
     });
-    this.mailer.afterCommit();
+    this.mail.afterCommit();
     return this.reload(id);
   }
 
@@ -757,7 +757,7 @@ export class SittingsService {
       // Reloaded so new candidates come with their guardians and sign-in addresses.
       if (before) await this.sendInvitations(em, before, await this.snapshot(em, await this.loadPlan(em, id, false)));
     });
-    this.mailer.afterCommit();
+    this.mail.afterCommit();
   }
 
   /** Lays out, checks conflicts and own pupils, saves the slots. */
@@ -1168,7 +1168,9 @@ export class SittingsService {
 
   private async sendInvitations(em: EntityManager, before: InviteSnapshot | null, after: InviteSnapshot): Promise<void> {
     const mails = invitationsFor(before, after, now());
-    if (mails.length) await this.mailer.enqueue(em, { organisationId: RequestContext.requireCaller().organisationId, sittingId: after.sittingId }, mails);
+    const organisationId = RequestContext.requireCaller().organisationId;
+    // OutboundMail rows in this transaction, like every e-mail: a rolled-back change sends nothing.
+    if (mails.length) await this.mail.enqueue(em, mails.map((m) => asOutboundMail(organisationId, after.sittingId, m)));
   }
 
   // ---------- access arrangements (relayout of the sittings they touch) ----------
@@ -1201,7 +1203,7 @@ export class SittingsService {
   }
 
   afterCommit(): void {
-    this.mailer.afterCommit();
+    this.mail.afterCommit();
   }
 
   /** Used by the arrangements service: may the caller see this slot's arrangement (examiner while marking)? */

@@ -18,11 +18,11 @@ const auth = (token: string) => ({ Authorization: `Bearer ${token}` });
 /** The sender records the Message-ID just after the catcher stores the message. */
 async function waitForSent(t: TestApp, messageId: string | null | undefined): Promise<void> {
   for (let i = 0; i < 50; i++) {
-    const rows = (await t.db.query(`SELECT 1 FROM sitting_mail WHERE message_id = $1`, [messageId])) as unknown[];
+    const rows = (await t.db.query(`SELECT 1 FROM outbound_mail WHERE message_id = $1 AND kind LIKE 'sitting_%'`, [messageId])) as unknown[];
     if (rows.length) return;
     await new Promise((r) => setTimeout(r, 100));
   }
-  throw new Error(`no sitting_mail row recorded message ${messageId}`);
+  throw new Error(`no sitting mail row recorded message ${messageId}`);
 }
 
 describe('sittings', () => {
@@ -302,11 +302,11 @@ describe('sittings', () => {
       expect(a.pinned!.rubricVersionIds).toEqual([...new Set(g3.lines.map((l) => l.rubricVersionId))].sort());
       expect((await http().get(`/api/requirement-list-versions/${g3.id}`).set(auth(tok.teacher!))).body.usedAt).not.toBeNull();
 
-      const mails = (await t.db.query(`SELECT kind, to_address FROM sitting_mail WHERE sitting_id = $1 ORDER BY to_address`, [a.id])) as { kind: string; to_address: string }[];
+      const mails = (await t.db.query(`SELECT kind, to_address FROM outbound_mail WHERE sitting_id = $1 ORDER BY to_address`, [a.id])) as { kind: string; to_address: string }[];
       // the two examiners who mark, and one guardian per (minor) candidate
       const guardians = (await t.db.query(`SELECT g.email FROM guardians g WHERE g.student_id = ANY($1)`, [a.slots.map((s) => s.studentId)])) as { email: string }[];
       expect(mails.map((m) => m.to_address).sort()).toEqual(['examiner@demo.example', 'ottilie.brandt@demo.example', ...guardians.map((g) => g.email)].sort());
-      expect(new Set(mails.map((m) => m.kind))).toEqual(new Set(['invitation']));
+      expect(new Set(mails.map((m) => m.kind))).toEqual(new Set(['sitting_invitation']));
 
       const mail = await waitForCaughtMail(dir, (m) => m.to.some((x) => x.includes('examiner@demo.example')));
       expect(mail.subject).toBe(`Examining Grade 3 mock: Tuesday 8 December 2026, 09:00 to ${a.slots.at(-1)!.endTime}`);
@@ -354,17 +354,19 @@ describe('sittings', () => {
     });
 
     it('a moved slot sends change notices only to those whose times changed', async () => {
-      await t.db.query(`DELETE FROM sitting_mail`);
+      await t.db.query(`DELETE FROM outbound_mail WHERE kind LIKE 'sitting_%'`);
       const [x, y] = [a.slots[2]!, a.slots[3]!];
       const res = await http().post(`/api/slots/${y.id}/move`).set(auth(tok.teacher!)).send({ direction: 'earlier' });
       expect(res.status).toBe(200);
-      const mails = (await t.db.query(`SELECT kind, to_name, subject, ics FROM sitting_mail`)) as { kind: string; to_name: string; subject: string; ics: string }[];
+      const mails = (await t.db.query(
+        `SELECT kind, to_name, data->>'subject' AS subject, data->>'ics' AS ics FROM outbound_mail WHERE kind LIKE 'sitting_%'`,
+      )) as { kind: string; to_name: string; subject: string; ics: string }[];
       const guardianOf = async (sid: string) => ((await t.db.query(`SELECT name FROM guardians WHERE student_id = $1`, [sid])) as { name: string }[]).map((g) => g.name);
       const expected = [...(await guardianOf(x.studentId)), ...(await guardianOf(y.studentId)), 'Priya Halvorsen'];
       // Ottilie second-marks the first slot only, which did not move: she hears nothing
       expect(a.slots.filter((s) => s.secondExaminer).map((s) => s.position)).toEqual([0]);
       expect(mails.map((m) => m.to_name).sort()).toEqual(expected.sort());
-      expect(mails.every((m) => m.kind === 'change')).toBe(true);
+      expect(mails.every((m) => m.kind === 'sitting_change')).toBe(true);
       expect(mails[0]!.subject).toMatch(/^Changed: /);
       expect(mails[0]!.ics).toContain(`SEQUENCE:${2}`);
       a = res.body;

@@ -11,8 +11,19 @@ import {
 } from 'typeorm';
 import { Organisation } from '../../organisations/entities/organisation.entity.js';
 import { AccountToken } from '../../invitations/entities/account-token.entity.js';
+import { Sitting } from '../../sittings/entities/sitting.entity.js';
 
-export const MAIL_KINDS = ['invitation', 'guardian_notice', 'password_reset', 'results_report', 'third_marking'] as const;
+export const MAIL_KINDS = [
+  'invitation',
+  'guardian_notice',
+  'password_reset',
+  'results_report',
+  'third_marking',
+  // A sitting's invitation, change or cancellation, each with its calendar file (RFC 5545).
+  'sitting_invitation',
+  'sitting_change',
+  'sitting_cancellation',
+] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 export const MAIL_STATUSES = [
   'queued',
@@ -31,7 +42,10 @@ export type MailStatus = (typeof MAIL_STATUSES)[number];
  * stored here.
  */
 @Entity('outbound_mail')
-@Check('outbound_mail_kind', `kind IN ('invitation', 'guardian_notice', 'password_reset', 'results_report', 'third_marking')`)
+@Check(
+  'outbound_mail_kind',
+  `kind IN ('invitation', 'guardian_notice', 'password_reset', 'results_report', 'third_marking', 'sitting_invitation', 'sitting_change', 'sitting_cancellation')`,
+)
 @Check(
   'outbound_mail_status',
   `status IN ('queued', 'sending', 'sent', 'retrying', 'failed', 'cancelled')`,
@@ -52,6 +66,15 @@ export class OutboundMail {
 
   @Column({ type: 'text' })
   kind: MailKind;
+
+  /** The sitting a sitting mail is about (kept when the sitting is deleted, as history). */
+  @Index()
+  @Column({ type: 'uuid', nullable: true })
+  sittingId: string | null;
+
+  @ManyToOne(() => Sitting, { onDelete: 'SET NULL' })
+  @JoinColumn({ name: 'sitting_id' })
+  sitting?: Relation<Sitting | null>;
 
   @Column({ type: 'text' })
   toAddress: string;
