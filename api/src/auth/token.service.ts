@@ -37,10 +37,13 @@ export class TokenService {
 
   /** The caller for a verified access-token payload, or null when the token was revoked. */
   async callerFor(payload: AccessPayload): Promise<Caller | null> {
-    const m = await this.memberships.findOne({
-      where: { personId: payload.sub, organisationId: payload.org, active: true },
-      relations: { person: true, organisation: true },
-    });
+    // One statement per request (findOne with relations sends two: ids first, then the rows).
+    const m = await this.memberships
+      .createQueryBuilder('m')
+      .innerJoinAndSelect('m.person', 'p')
+      .innerJoinAndSelect('m.organisation', 'o')
+      .where('m.personId = :sub AND m.organisationId = :org AND m.active = true', { sub: payload.sub, org: payload.org })
+      .getOne();
     if (!m?.person || !m.organisation || m.person.tokenVersion !== payload.tv) return null;
     return {
       personId: m.personId,
