@@ -123,6 +123,7 @@ async function generate(c) {
     SELECT o.id AS org,
       (SELECT m.id FROM memberships m JOIN people p ON p.id = m.person_id WHERE p.email = 'examiner@demo.example' AND m.organisation_id = o.id) AS examiner,
       (SELECT m.id FROM memberships m JOIN people p ON p.id = m.person_id WHERE p.email = 'teacher@demo.example' AND m.organisation_id = o.id) AS teacher,
+      (SELECT m.id FROM memberships m JOIN people p ON p.id = m.person_id WHERE p.email = 'tomasz.whitcombe@demo.example' AND m.organisation_id = o.id) AS class_teacher,
       (SELECT id FROM band_policies WHERE organisation_id = o.id ORDER BY version DESC LIMIT 1) AS policy,
       (SELECT rv.id FROM rubric_versions rv JOIN rubrics r ON r.id = rv.rubric_id WHERE r.organisation_id = o.id AND r.starter_key = 'scales' AND rv.status = 'published' ORDER BY rv.version DESC LIMIT 1) AS rubric,
       (SELECT lv.id FROM requirement_list_versions lv JOIN requirement_lists l ON l.id = lv.list_id WHERE l.organisation_id = o.id AND l.starter_key = 'grade-5' AND lv.status = 'published' ORDER BY lv.version DESC LIMIT 1) AS list,
@@ -153,6 +154,8 @@ async function generate(c) {
   await q('class members', `INSERT INTO class_members (class_id, student_id)
     SELECT ${uid(`'bx-class-' || (n / ${CLASS_SIZE})`)}, ${uid(`'bx-student-' || n`)} FROM generate_series(0, ${STUDENTS - 1}) n`);
   await q('class teachers', `INSERT INTO class_teachers (class_id, membership_id) SELECT ${uid(`'bx-class-' || c`)}, $1 FROM generate_series(0, ${CLASSES - 1}) c`, [ctx.teacher]);
+  // And one teacher of a single generated class (40 students) besides their own demo class: the usual case.
+  await c.query(`INSERT INTO class_teachers (class_id, membership_id) VALUES (${uid(`'bx-class-0'`)}, $1)`, [ctx.class_teacher]);
   // Sitting k = round × 500 + class; the rounds spread over the school year, the classes over each round's weeks.
   const sittingDate = `(date '2025-09-08' + (k / ${CLASSES}) * 33 + (k % ${CLASSES}) % 25)`;
   await q('sittings', `INSERT INTO sittings (id, organisation_id, title, date, room, time_zone, starts_at, ends_at, breaks, write_up_gap_minutes,
@@ -261,7 +264,10 @@ async function captureStatements(fn) {
   pg.Client.prototype.query = function (config, values, cb) {
     const text = typeof config === 'string' ? config : config?.text;
     const vals = typeof config === 'string' ? values : (config?.values ?? values);
-    if (typeof text === 'string' && !/^(START TRANSACTION|COMMIT|ROLLBACK|BEGIN|SELECT 1$)/i.test(text.trim())) seen.push({ text, values: Array.isArray(vals) ? vals : [] });
+    // Not the request's own: transaction control, and pg-boss's job polling and schedules, which run
+    // on their own timers in the same process and would otherwise be replayed as if the route sent them.
+    if (typeof text === 'string' && !/^(START TRANSACTION|COMMIT|ROLLBACK|BEGIN|SELECT 1$)/i.test(text.trim()) && !/pgboss\./i.test(text))
+      seen.push({ text, values: Array.isArray(vals) ? vals : [] });
     return orig.call(this, config, values, cb);
   };
   try {
@@ -459,8 +465,12 @@ async function main() {
     const first = await timeRoute(server.base, teacherToken, '/api/attention', 1);
     const nAttention = first[0] > 2000 ? 3 : first[0] > 200 ? 20 : 100;
     const att = await timeRoute(server.base, teacherToken, '/api/attention', nAttention);
-    console.log(`Attention list of a teacher of ${STUDENTS} students (GET /api/attention), ${nAttention} requests after one warm-up:`);
-    console.log(`  API     p50 ${f1(pctl(att, 50)).padStart(7)} ms   p95 ${f1(pctl(att, 95)).padStart(7)} ms   (first ${f1(first[0])} ms; no target in the issue)`);
+    console.log(`Attention list (GET /api/attention), no target in the issue:`);
+    console.log(`  teacher of all ${STUDENTS} generated students, ${nAttention} requests after one: p50 ${f1(pctl(att, 50))} ms   p95 ${f1(pctl(att, 95))} ms   (first ${f1(first[0])} ms)`);
+    const oneClassToken = await login(server.base, 'tomasz.whitcombe@demo.example');
+    await timeRoute(server.base, oneClassToken, '/api/attention', 10);
+    const att1 = await timeRoute(server.base, oneClassToken, '/api/attention', REQUESTS_RUN);
+    console.log(`  teacher of one generated class (40) and a demo class, ${REQUESTS_RUN} requests: p50 ${f1(pctl(att1, 50))} ms   p95 ${f1(pctl(att1, 95))} ms`);
     console.log('');
 
     // 3. The full year as CSV, against COPY of the same rows.

@@ -58,6 +58,8 @@ interface YearRow {
   slips: number | null;
   notes_played: number | null;
   released_at: Date | null;
+  /** Every version of this row's list lineage at its grade (the percentile's peers). */
+  lineage_versions: string[];
 }
 
 interface SheetRow {
@@ -119,7 +121,9 @@ export class ProgressService {
               v.list_id, v.grade, v.name AS list_name,
               r.percentage, r.total, r.out_of, r.band_key, r.band_label,
               r.profile -> 'criteria' AS criteria, r.profile -> 'requests' AS requests,
-              r.slips, r.notes_played, r.released_at
+              r.slips, r.notes_played, r.released_at,
+              (SELECT array_agg(v2.id::text) FROM requirement_list_versions v2
+                WHERE v2.organisation_id = sl.organisation_id AND v2.list_id = v.list_id AND v2.grade = v.grade) AS lineage_versions
          FROM slots sl
          JOIN sittings st ON st.id = sl.sitting_id
          JOIN sitting_papers sp ON sp.id = sl.paper_id
@@ -224,21 +228,23 @@ export class ProgressService {
       // Each same-grade student's latest result in the same list lineage over the year (their own
       // included), counted by percentage: a few dozen rows, however many students. Per list version
       // the index (organisation, version, student, computed_at DESC) INCLUDE (percentage) hands the
-      // latest per student in order, without touching the table; across versions, the latest wins.
+      // latest per student in order without touching the table; only a lineage of several versions
+      // needs the latest across them sorted out.
+      const versions = rows.find((r) => r.slot_id === latest.slotId)?.lineage_versions ?? [];
+      const perVersion = (version: string) => `
+        SELECT DISTINCT ON (r.student_id) r.student_id, r.computed_at, r.percentage
+          FROM results r
+         WHERE r.organisation_id = $1 AND r.list_version_id = ${version} AND r.computed_at >= $2::date
+         ORDER BY r.student_id, r.computed_at DESC`;
+      const latestPerStudent =
+        versions.length === 1
+          ? perVersion('$3::uuid')
+          : `SELECT DISTINCT ON (x.student_id) x.percentage
+               FROM unnest($3::uuid[]) v(id) CROSS JOIN LATERAL (${perVersion('v.id')}) x
+              ORDER BY x.student_id, x.computed_at DESC`;
       const peers = (await this.db.query(
-        `SELECT y.percentage, count(*)::int AS n
-           FROM (SELECT DISTINCT ON (x.student_id) x.percentage
-                   FROM requirement_list_versions v
-                  CROSS JOIN LATERAL (
-                    SELECT DISTINCT ON (r.student_id) r.student_id, r.computed_at, r.percentage
-                      FROM results r
-                     WHERE r.organisation_id = $1 AND r.list_version_id = v.id AND r.computed_at >= $4::date
-                     ORDER BY r.student_id, r.computed_at DESC
-                  ) x
-                  WHERE v.organisation_id = $1 AND v.list_id = $2 AND v.grade = $3
-                  ORDER BY x.student_id, x.computed_at DESC) y
-          GROUP BY y.percentage`,
-        [caller.organisationId, latest.lineageId, latest.grade, from],
+        `SELECT y.percentage, count(*)::int AS n FROM (${latestPerStudent}) y GROUP BY y.percentage`,
+        [caller.organisationId, from, versions.length === 1 ? versions[0] : versions],
       )) as { percentage: number; n: number }[];
       const values = peers.flatMap((p) => Array<number>(p.n).fill(p.percentage));
       if (!values.includes(latest.result.percentage)) values.push(latest.result.percentage);

@@ -193,7 +193,7 @@ export class ReportsService {
     const [panel, slots, facts] = await Promise.all([
       this.panels.find({ where: { sittingId } }),
       this.slots.find({ where: { sittingId }, relations: { student: true }, order: { position: 'ASC' } }),
-      this.sittingsService.callerFacts(),
+      this.sittingsService.callerFacts(undefined, sittingId),
     ]);
     return { sitting, access: accessTo(facts, sitting, panel.map((p) => p.membershipId)), slots };
   }
