@@ -5,6 +5,7 @@
 import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { readFileSync } from 'node:fs';
+import http from 'node:http';
 import { cpus, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
@@ -157,11 +158,32 @@ try {
     throw new Error(`only ${cells.length} cells per sheet for ${SECONDS} saves`);
 
   // One save on its own first: the floor a save costs on this machine without contention.
+  // node:http over kept-alive sockets rather than fetch: the client shares the server's two cores,
+  // and fetch cost it about 1.8 ms of CPU per save. Answers { status, text() } like a Response.
+  const agent = new http.Agent({ keepAlive: true, maxSockets: EXAMINERS });
+  const target = new URL(api);
   const save = (sheetId, changeId, cell, value, baseVersion = 0) =>
-    fetch(`${api}/mark-sheets/${sheetId}/cells`, {
-      method: 'POST',
-      headers: auth,
-      body: JSON.stringify({ changeId, cell, value, baseVersion }),
+    new Promise((resolve, reject) => {
+      const body = JSON.stringify({ changeId, cell, value, baseVersion });
+      const req = http.request(
+        {
+          agent,
+          host: target.hostname,
+          port: target.port,
+          method: 'POST',
+          path: `${target.pathname}/mark-sheets/${sheetId}/cells`,
+          headers: { ...auth, 'Content-Length': Buffer.byteLength(body) },
+        },
+        (res) => {
+          let text = '';
+          res.setEncoding('utf8');
+          res.on('data', (c) => (text += c));
+          res.on('end', () => resolve({ status: res.statusCode, text: async () => text }));
+          res.on('error', reject);
+        },
+      );
+      req.on('error', reject);
+      req.end(body);
     });
   const alone = [];
   for (let i = 0; i < 20; i++) {
