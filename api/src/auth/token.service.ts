@@ -9,6 +9,7 @@ import type { Caller } from '../common/request-context.js';
 import { Membership } from '../users/entities/membership.entity.js';
 import { Person } from '../users/entities/person.entity.js';
 import { RefreshToken } from './entities/refresh-token.entity.js';
+import { preparedQuery } from '../common/prepared-query.js';
 
 export interface AccessPayload {
   sub: string;
@@ -42,13 +43,15 @@ export class TokenService {
    * whichever API instance answers it.
    */
   async callerFor(payload: AccessPayload): Promise<Caller | null> {
-    const [row] = (await this.memberships.query(
+    const [row] = await preparedQuery<{ id: string; roles: Caller['roles']; time_zone: string }>(
+      this.memberships.manager.connection,
+      'auth-caller',
       `SELECT m.id, m.roles, o.time_zone FROM memberships m
          JOIN people p ON p.id = m.person_id
          JOIN organisations o ON o.id = m.organisation_id
         WHERE m.person_id = $1 AND m.organisation_id = $2 AND m.active AND p.token_version = $3`,
       [payload.sub, payload.org, payload.tv],
-    )) as { id: string; roles: Caller['roles']; time_zone: string }[];
+    );
     if (!row) return null;
     return {
       personId: payload.sub,

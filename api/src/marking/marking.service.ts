@@ -43,6 +43,7 @@ import { MarkChange } from './entities/mark-change.entity.js';
 import { MarkSheet } from './entities/mark-sheet.entity.js';
 import { SlotDraw, type RequestChange } from './entities/slot-draw.entity.js';
 import { toSheetView } from './marking.mapper.js';
+import { preparedQuery } from '../common/prepared-query.js';
 
 /** A conflict on one cell: answered 409 with both values, after the change is recorded. */
 export class CellConflict extends DomainError {
@@ -623,7 +624,9 @@ export class MarkingService {
   ): Promise<SaveResult | null> {
     let rows: { version: number }[];
     try {
-      rows = (await this.db.query(
+      rows = await preparedQuery<{ version: number }>(
+        this.db,
+        'marking-save-at-once',
         `WITH sheet AS (
            SELECT id FROM mark_sheets
             WHERE id = $1 AND organisation_id = $6 AND examiner_membership_id = $7 AND status <> 'submitted'
@@ -655,10 +658,11 @@ export class MarkingService {
           sheet.organisationId,
           caller.membershipId,
         ],
-      )) as { version: number }[];
+      );
     } catch (err) {
       // The same change id committed meanwhile (a racing retry): nothing of this statement stays.
-      const e = (err as { driverError?: { code?: string; table?: string } }).driverError;
+      // (pg's own error: the statement goes to the pool, not through TypeORM.)
+      const e = err as { code?: string; table?: string };
       if (e?.code === '23505' && e.table === 'mark_changes') return null;
       throw err;
     }
