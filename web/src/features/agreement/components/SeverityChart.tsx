@@ -25,6 +25,7 @@ export function SeverityChart({ figures }: { figures: SeverityFigure[] }) {
     responsive: true,
     maintainAspectRatio: false,
     animation: false,
+    layout: { padding: { left: 8, right: 8 } },
     plugins: {
       legend: { display: false },
       tooltip: { callbacks: { label: (c) => labels[c.dataIndex] ?? '' } },
