@@ -22,7 +22,10 @@ describe('latest_results: the percentile’s table of each student’s latest re
   beforeAll(async () => {
     t = await createTestApp({ today: SEED_DAY, env: { STAVEMARK_NOW: `${SEED_DAY}T12:00:00Z` } });
     teacher = await signIn(t, 'teacher@demo.example');
-    for (const r of (await t.db.query(`SELECT pupil_number, id FROM students`)) as { pupil_number: string; id: string }[])
+    for (const r of (await t.db.query(`SELECT pupil_number, id FROM students`)) as {
+      pupil_number: string;
+      id: string;
+    }[])
       id[r.pupil_number] = r.id;
   });
   afterAll(() => t.close());
@@ -40,13 +43,18 @@ describe('latest_results: the percentile’s table of each student’s latest re
     )) as Latest[];
   const rowsOf = async (pupil: string) => (await table()).filter((r) => r.student_id === id[pupil]);
   const progress = async (pupil: string) => {
-    const res = await t.http().get(`/api/students/${id[pupil]}/progress`).set('Authorization', `Bearer ${teacher}`);
+    const res = await t
+      .http()
+      .get(`/api/students/${id[pupil]}/progress`)
+      .set('Authorization', `Bearer ${teacher}`);
     expect(res.status).toBe(200);
     return res.body as ProgressView;
   };
   // quantileRank (simple-statistics) over each grade-5 peer's latest result, straight from results.
   const expectedPercentile = async (lineageId: string, value: number) => {
-    const peers = (await derived()).filter((r) => r.list_id === lineageId && r.grade === '5').map((r) => r.percentage);
+    const peers = (await derived())
+      .filter((r) => r.list_id === lineageId && r.grade === '5')
+      .map((r) => r.percentage);
     return 100 * quantileRank(peers, value);
   };
 
@@ -72,11 +80,18 @@ describe('latest_results: the percentile’s table of each student’s latest re
     )) as { id: string; slot_id: string; sitting_id: string }[];
     expect(first!.id).not.toBe(before!.result_id);
     // A peer below Ellis's old latest, whose percentile must rise once Ellis drops to 0 %.
-    const peers = (await derived()).filter((r) => r.list_id === before!.list_id && r.grade === '5' && r.student_id !== ellis);
-    const low = peers.filter((r) => r.percentage < before!.percentage).sort((a, b) => a.percentage - b.percentage)[0]!;
+    const peers = (await derived()).filter(
+      (r) => r.list_id === before!.list_id && r.grade === '5' && r.student_id !== ellis,
+    );
+    const low = peers
+      .filter((r) => r.percentage < before!.percentage)
+      .sort((a, b) => a.percentage - b.percentage)[0]!;
     const lowPupil = Object.keys(id).find((p) => id[p] === low.student_id)!;
     const peerBefore = await progress(lowPupil);
-    expect(peerBefore.percentile!.value!).toBeCloseTo(await expectedPercentile(before!.list_id, low.percentage), 9);
+    expect(peerBefore.percentile!.value!).toBeCloseTo(
+      await expectedPercentile(before!.list_id, low.percentage),
+      9,
+    );
 
     await t.db.query(
       `UPDATE mark_cells c SET value = to_jsonb(0) FROM mark_sheets ms
@@ -92,7 +107,10 @@ describe('latest_results: the percentile’s table of each student’s latest re
     expect(await table()).toEqual(await derived());
     const peerAfter = await progress(lowPupil);
     expect(peerAfter.percentile!.value!).toBeGreaterThan(peerBefore.percentile!.value!);
-    expect(peerAfter.percentile!.value!).toBeCloseTo(await expectedPercentile(before!.list_id, low.percentage), 9);
+    expect(peerAfter.percentile!.value!).toBeCloseTo(
+      await expectedPercentile(before!.list_id, low.percentage),
+      9,
+    );
     expect(peerAfter.percentile!.students).toBe(peerBefore.percentile!.students);
   });
 
@@ -114,7 +132,10 @@ describe('latest_results: the percentile’s table of each student’s latest re
       .set('Authorization', `Bearer ${teacher}`)
       .send({ outcome: 'withdrawn', note: 'Withdrew on the day; entered in error.' });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
-    const now = (await table()).find((r) => r.student_id === row!.student_id && r.list_id === row!.list_id && r.grade === row!.grade);
+    const now = (await table()).find(
+      (r) =>
+        r.student_id === row!.student_id && r.list_id === row!.list_id && r.grade === row!.grade,
+    );
     expect(now).toBeDefined();
     expect(now!.result_id).not.toBe(row!.result_id);
     expect(await table()).toEqual(await derived());

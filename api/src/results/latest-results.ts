@@ -23,13 +23,23 @@ export const fillLatestResultsSql = (where: string) => `
  * own row. The students' rows are locked first so two transactions rebuilding the same student
  * run one after the other, the second seeing the first's results.
  */
-export async function refreshLatest(em: EntityManager, organisationId: string, studentIds: readonly string[]): Promise<void> {
+export async function refreshLatest(
+  em: EntityManager,
+  organisationId: string,
+  studentIds: readonly string[],
+): Promise<void> {
   const ids = [...new Set(studentIds)].sort();
   if (!ids.length) return;
   await em.query(
     `SELECT 1 FROM students WHERE organisation_id = $1 AND id = ANY($2::uuid[]) ORDER BY id FOR NO KEY UPDATE`,
     [organisationId, ids],
   );
-  await em.query(`DELETE FROM latest_results WHERE organisation_id = $1 AND student_id = ANY($2::uuid[])`, [organisationId, ids]);
-  await em.query(fillLatestResultsSql(`r.organisation_id = $1 AND r.student_id = ANY($2::uuid[])`), [organisationId, ids]);
+  await em.query(
+    `DELETE FROM latest_results WHERE organisation_id = $1 AND student_id = ANY($2::uuid[])`,
+    [organisationId, ids],
+  );
+  await em.query(
+    fillLatestResultsSql(`r.organisation_id = $1 AND r.student_id = ANY($2::uuid[])`),
+    [organisationId, ids],
+  );
 }

@@ -141,7 +141,11 @@ export function percentileInGrade(value: number, gradeValues: readonly number[])
  * and how many equal it — so a database can count them on an index instead of sending every value.
  * Null below 10 students, as there.
  */
-export function percentileFromCounts(counts: { below: number; equal: number; n: number }): number | null {
+export function percentileFromCounts(counts: {
+  below: number;
+  equal: number;
+  n: number;
+}): number | null {
   const { below, equal, n } = counts;
   if (![below, equal, n].every((x) => Number.isInteger(x) && x >= 0) || below + equal > n)
     throw new RangeError('The counts must be whole numbers with below + equal ≤ n.');

@@ -1,4 +1,12 @@
-import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryColumn, type Relation } from 'typeorm';
+import {
+  Column,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  PrimaryColumn,
+  type Relation,
+} from 'typeorm';
 import { Organisation } from '../../organisations/entities/organisation.entity.js';
 import { Student } from '../../students/entities/student.entity.js';
 import { Result } from './result.entity.js';
