@@ -27,6 +27,7 @@ import { MarkSheet } from '../marking/entities/mark-sheet.entity.js';
 import { MarkCell } from '../marking/entities/mark-cell.entity.js';
 import { MarkChange } from '../marking/entities/mark-change.entity.js';
 import { Result } from '../results/entities/result.entity.js';
+import { LatestResult } from '../results/entities/latest-result.entity.js';
 import { ModerationCase } from '../moderation/entities/moderation-case.entity.js';
 import { StandardisationExercise } from '../standardisation/entities/standardisation-exercise.entity.js';
 import { StandardisationAttempt } from '../standardisation/entities/standardisation-attempt.entity.js';
@@ -63,6 +64,7 @@ export const entities = [
   MarkCell,
   MarkChange,
   Result,
+  LatestResult,
   ModerationCase,
   StandardisationExercise,
   StandardisationAttempt,

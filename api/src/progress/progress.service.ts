@@ -4,7 +4,7 @@ import { DataSource } from 'typeorm';
 import {
   entrenchedIssues,
   isTensionCriterion,
-  percentileInGrade,
+  percentileFromCounts,
   persistentLow,
   risingSlipRate,
   splitComparable,
@@ -58,8 +58,6 @@ interface YearRow {
   slips: number | null;
   notes_played: number | null;
   released_at: Date | null;
-  /** Every version of this row's list lineage at its grade (the percentile's peers). */
-  lineage_versions: string[];
 }
 
 interface SheetRow {
@@ -121,9 +119,7 @@ export class ProgressService {
               v.list_id, v.grade, v.name AS list_name,
               r.percentage, r.total, r.out_of, r.band_key, r.band_label,
               r.profile -> 'criteria' AS criteria, r.profile -> 'requests' AS requests,
-              r.slips, r.notes_played, r.released_at,
-              (SELECT array_agg(v2.id::text) FROM requirement_list_versions v2
-                WHERE v2.organisation_id = sl.organisation_id AND v2.list_id = v.list_id AND v2.grade = v.grade) AS lineage_versions
+              r.slips, r.notes_played, r.released_at
          FROM slots sl
          JOIN sittings st ON st.id = sl.sitting_id
          JOIN sitting_papers sp ON sp.id = sl.paper_id
@@ -226,31 +222,23 @@ export class ProgressService {
     let percentile: ProgressView['percentile'] = null;
     if (latest?.result) {
       // Each same-grade student's latest result in the same list lineage over the year (their own
-      // included), counted by percentage: a few dozen rows, however many students. Per list version
-      // the index (organisation, version, student, computed_at DESC) INCLUDE (percentage) hands the
-      // latest per student in order without touching the table; only a lineage of several versions
-      // needs the latest across them sorted out.
-      const versions = rows.find((r) => r.slot_id === latest.slotId)?.lineage_versions ?? [];
-      const perVersion = (version: string) => `
-        SELECT DISTINCT ON (r.student_id) r.student_id, r.computed_at, r.percentage
-          FROM results r
-         WHERE r.organisation_id = $1 AND r.list_version_id = ${version} AND r.computed_at >= $2::date
-         ORDER BY r.student_id, r.computed_at DESC`;
-      const latestPerStudent =
-        versions.length === 1
-          ? perVersion('$3::uuid')
-          : `SELECT DISTINCT ON (x.student_id) x.percentage
-               FROM unnest($3::uuid[]) v(id) CROSS JOIN LATERAL (${perVersion('v.id')}) x
-              ORDER BY x.student_id, x.computed_at DESC`;
-      const peers = (await this.db.query(
-        `SELECT y.percentage, count(*)::int AS n FROM (${latestPerStudent}) y GROUP BY y.percentage`,
-        [caller.organisationId, from, versions.length === 1 ? versions[0] : versions],
-      )) as { percentage: number; n: number }[];
-      const values = peers.flatMap((p) => Array<number>(p.n).fill(p.percentage));
-      if (!values.includes(latest.result.percentage)) values.push(latest.result.percentage);
+      // included), counted by percentage. latest_results holds one row per student, lineage and
+      // grade (the latest overall: if it is older than the year, so is every earlier one), so this
+      // is one index range over the peers, counting those below and equal, not a search for each
+      // peer's latest result.
+      const [c] = (await this.db.query(
+        `SELECT count(*)::int AS n, count(*) FILTER (WHERE l.percentage < $5)::int AS below,
+                count(*) FILTER (WHERE l.percentage = $5)::int AS equal
+           FROM latest_results l
+          WHERE l.organisation_id = $1 AND l.list_id = $2 AND l.grade = $3 AND l.computed_at >= $4::date`,
+        [caller.organisationId, latest.lineageId, latest.grade, from, latest.result.percentage],
+      )) as { n: number; below: number; equal: number }[];
+      // The student's shown result counts even when a later, unreleased one is their stored latest.
+      const own = c!.equal === 0 ? 1 : 0;
+      const counts = { below: c!.below, equal: c!.equal + own, n: c!.n + own };
       percentile = {
-        value: percentileInGrade(latest.result.percentage, values),
-        students: values.length,
+        value: percentileFromCounts(counts),
+        students: counts.n,
         grade: latest.grade,
         lineageId: latest.lineageId,
       };

@@ -31,6 +31,7 @@ import { BandPolicyVersion } from '../sittings/entities/band-policy.entity.js';
 import { Sitting } from '../sittings/entities/sitting.entity.js';
 import { Slot } from '../sittings/entities/slot.entity.js';
 import { Result } from './entities/result.entity.js';
+import { refreshLatest } from './latest-results.js';
 import { requestLabel } from './request-label.js';
 
 /** The cells of one sheet by name, as the desk saved them. */
@@ -142,6 +143,7 @@ export class ResultsService {
     };
     const keep = new Set<string>();
     const repo = scope(Result, 'result');
+    const touched: string[] = [];
 
     for (const slot of slots) {
       if (slot.outcome !== 'completed') continue;
@@ -190,9 +192,12 @@ export class ResultsService {
       }
       const row =
         prior ?? repo.create({ releasedAt: null, releasedByPersonId: null, teacherNote: null });
+      // A result moved to another student (slot reassigned) leaves the former one's row to rebuild.
+      if (prior && prior.studentId !== values.studentId) touched.push(prior.studentId);
       Object.assign(row, values, { computedAt: now() });
       await repo.save(row);
       summary.computed++;
+      touched.push(row.studentId);
     }
     const stale = existing.filter((r) => !keep.has(r.slotId));
     if (stale.length) {
@@ -201,7 +206,10 @@ export class ResultsService {
         organisationId: sitting.organisationId,
       });
       summary.removed = stale.length;
+      touched.push(...stale.map((r) => r.studentId));
     }
+    // The progress percentile's table of latest results, in this same transaction.
+    await refreshLatest(em, sitting.organisationId, touched);
     return summary;
   }
 

@@ -30,6 +30,7 @@ import { toLineView } from '../requirement-lists/requirement-lists.mapper.js';
 import { candidateMinutes, paperMinutes, planDay } from '../sittings/day-plan.js';
 import { spreadIndices } from '../sittings/double-marking.js';
 import { ResultsService } from '../results/results.service.js';
+import { refreshLatest } from '../results/latest-results.js';
 import { localToInstant } from '../sittings/zoned-time.js';
 
 const PRIYA = 'examiner@demo.example';
@@ -588,6 +589,13 @@ export async function seedDemoYear(em: EntityManager, organisationId: string, to
     `UPDATE results r SET computed_at = s.ends_at + interval '1 day' FROM sittings s WHERE s.id = r.sitting_id AND r.sitting_id = ANY($1::uuid[])`,
     [todo.map((p) => sittingId.get(p.title))],
   );
+  // computed_at moved: the latest result per lineage may be another one now.
+  const moved = (await em.query(
+    `SELECT DISTINCT organisation_id, student_id FROM results WHERE sitting_id = ANY($1::uuid[])`,
+    [todo.map((p) => sittingId.get(p.title))],
+  )) as { organisation_id: string; student_id: string }[];
+  for (const org of new Set(moved.map((m) => m.organisation_id)))
+    await refreshLatest(em, org, moved.filter((m) => m.organisation_id === org).map((m) => m.student_id));
   const releaser = people.find((x) => x.email === 'teacher@demo.example');
   const published = todo.filter((p) => p.s.status === 'published').map((p) => sittingId.get(p.title));
   await em.query(

@@ -2,6 +2,7 @@ import { linearRegression, quantileRank } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
 import {
   MIN_STUDENTS_FOR_PERCENTILE,
+  percentileFromCounts,
   percentileInGrade,
   splitComparable,
   trend,
@@ -80,5 +81,23 @@ describe('percentileInGrade', () => {
   it(`is hidden (null) below ${MIN_STUDENTS_FOR_PERCENTILE} students (design.md §4.6)`, () => {
     expect(percentileInGrade(70, grade.slice(0, 9))).toBeNull();
     expect(percentileInGrade(70, grade.slice(0, 10))).not.toBeNull();
+  });
+});
+
+describe('percentileFromCounts', () => {
+  const grade = [42, 55, 61, 61, 67, 70, 73, 78, 81, 90, 95];
+  const counts = (v: number) => ({
+    below: grade.filter((x) => x < v).length,
+    equal: grade.filter((x) => x === v).length,
+    n: grade.length,
+  });
+  it('agrees with simple-statistics quantileRank (× 100) from the counts alone', () => {
+    for (const v of [61, 70, 95, 42, 65, 30, 99])
+      expect(percentileFromCounts(counts(v))).toBeCloseTo(quantileRank(grade, v) * 100, 10);
+  });
+  it(`is hidden (null) below ${MIN_STUDENTS_FOR_PERCENTILE} students and refuses impossible counts`, () => {
+    expect(percentileFromCounts({ below: 3, equal: 1, n: 9 })).toBeNull();
+    expect(() => percentileFromCounts({ below: 8, equal: 4, n: 10 })).toThrow(RangeError);
+    expect(() => percentileFromCounts({ below: 1.5, equal: 0, n: 10 })).toThrow(RangeError);
   });
 });

@@ -129,9 +129,29 @@ export function percentileInGrade(value: number, gradeValues: readonly number[])
   const n = sorted.length;
   if (value < (sorted[0] as number)) return 0;
   if (value > (sorted[n - 1] as number)) return 100;
-  const below = sorted.filter((v) => v < value).length;
-  const equal = sorted.filter((v) => v === value).length;
+  return percentileFromCounts({
+    below: sorted.filter((v) => v < value).length,
+    equal: sorted.filter((v) => v === value).length,
+    n,
+  });
+}
+
+/**
+ * percentileInGrade from counts alone — how many of the grade's n values are below the student's
+ * and how many equal it — so a database can count them on an index instead of sending every value.
+ * Null below 10 students, as there.
+ */
+export function percentileFromCounts(counts: {
+  below: number;
+  equal: number;
+  n: number;
+}): number | null {
+  const { below, equal, n } = counts;
+  if (![below, equal, n].every((x) => Number.isInteger(x) && x >= 0) || below + equal > n)
+    throw new RangeError('The counts must be whole numbers with below + equal ≤ n.');
+  if (n < MIN_STUDENTS_FOR_PERCENTILE) return null;
   // No equal value: its position among the sorted values; otherwise the mean rank of the ties.
+  // (Below every value this is 0, above every value n / n = 100, as percentileInGrade says.)
   const rank = equal === 0 ? below / n : (below + (equal + 1) / 2) / n;
   return rank * 100;
 }

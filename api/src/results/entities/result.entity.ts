@@ -28,10 +28,6 @@ import { Person } from '../../users/entities/person.entity.js';
 @Check('results_total', `total >= 0 AND out_of > 0 AND total <= out_of`)
 @Index(['organisationId', 'studentId', 'computedAt'])
 @Index(['sittingId'])
-// Progress (issue 8): each same-grade student's latest result in a list, for the percentile:
-// (organisation, list version, student, computed_at DESC) INCLUDE (percentage), made by the
-// PeerPercentileIndex migration (TypeORM cannot describe DESC or INCLUDE).
-@Index('IDX_results_peer_latest', { synchronize: false })
 export class Result implements OrgOwned {
   @PrimaryGeneratedColumn('uuid')
   id: string;
