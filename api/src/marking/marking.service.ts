@@ -675,15 +675,7 @@ export class MarkingService {
       if (e?.code === '23505' && e.table === 'mark_changes') return null;
       throw err;
     }
-    const version = rows[0]?.version;
-    if (version === undefined) return null;
-    return {
-      status: 'applied',
-      cell: input.cell,
-      value: input.value,
-      version,
-      changeId: input.changeId,
-    };
+    return appliedAt(input, rows[0]?.version);
   }
 
   /**
@@ -725,15 +717,7 @@ export class MarkingService {
         sheet.organisationId,
       ],
     )) as { version: number }[];
-    const version = rows[0]?.version;
-    if (version === undefined) return null;
-    return {
-      status: 'applied',
-      cell: input.cell,
-      value: input.value,
-      version,
-      changeId: input.changeId,
-    };
+    return appliedAt(input, rows[0]?.version);
   }
 
   /** A later change to a submitted sheet: audited with the old and new values and the reason. */
@@ -1075,4 +1059,10 @@ function clock(instant: Date, timeZone: string): string {
     minute: '2-digit',
     hourCycle: 'h23',
   }).format(instant);
+}
+
+/** The answer to a save that the one-statement paths wrote at `version`; null when they did not. */
+function appliedAt(input: SaveCellInput, version: number | undefined): SaveResult | null {
+  if (version === undefined) return null;
+  return { status: 'applied', cell: input.cell, value: input.value, version, changeId: input.changeId };
 }
